@@ -1,0 +1,12 @@
+// Every screen but sign-in needs a signed-in person.
+export default defineNuxtRouteMiddleware(async (to) => {
+  const { loggedIn } = useUserSession()
+  if (to.path === '/login') {
+    if (loggedIn.value) return navigateTo('/')
+    return
+  }
+  if (!loggedIn.value) return navigateTo({ path: '/login', query: to.fullPath !== '/' ? { next: to.fullPath } : undefined })
+  const need = to.meta.roles as string[] | undefined
+  const { user } = useUserSession()
+  if (need && user.value && !need.includes(user.value.role)) return navigateTo('/')
+})

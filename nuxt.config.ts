@@ -1,0 +1,51 @@
+import { pwa } from './pwa.config'
+
+// Jogwise keeps Nuxt's folders at the repository root (app.vue, pages/, components/…), so srcDir
+// is '.'; server/, shared/ and public/ are Nuxt's defaults relative to it.
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  srcDir: '.',
+  modules: [
+    '@pinia/nuxt',
+    '@nuxtjs/tailwindcss',
+    'nuxt-auth-utils',
+    '@vueuse/nuxt',
+    '@vite-pwa/nuxt',
+  ],
+  css: ['~/assets/css/main.css'],
+  devtools: { enabled: false },
+  telemetry: false,
+  imports: { dirs: ['stores'] },
+  // Folder names group components; the file name alone is the tag (<MachineTile>, <TheTopBar>).
+  components: [{ path: '~/components', pathPrefix: false }],
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Jogwise',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1, viewport-fit=cover' },
+        { name: 'description', content: 'Machine-side procedures, safety holds and machining arithmetic for a CNC-router shop.' },
+      ],
+    },
+  },
+  // Every key is empty here and filled from NUXT_* variables (see .env.example).
+  runtimeConfig: {
+    db: { host: '127.0.0.1', port: '3417', user: 'jogwise', password: '', name: 'jogwise' },
+    /** Seed the invented demo shop when the database holds no shop yet. */
+    demoSeed: '',
+    /** Demo password printed by npm start; used only by the seed. */
+    demoPassword: '',
+    session: {
+      password: '',
+      maxAge: 60 * 60 * 12,
+      cookie: { sameSite: 'lax' },
+    },
+  },
+  // Payload files are fetched separately and fail offline (vitesse nuxt.config.ts note).
+  experimental: { payloadExtraction: false },
+  nitro: {
+    compressPublicAssets: true,
+  },
+  pwa,
+  tailwindcss: { cssPath: false, viewer: false },
+})

@@ -1,0 +1,53 @@
+#!/usr/bin/env bash
+# npm start: everything from a fresh Debian machine with Node 20 to a served, seeded Jogwise.
+# Starts MariaDB (127.0.0.1:3417) and the app (http://localhost:3000) in the background;
+# `npm run stop` stops both.
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+cd "$ROOT"
+
+PORT="${PORT:-3000}"
+DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}"
+SERVER_PID="$DATA_DIR/server.pid"
+
+ensure_apt_packages
+ensure_node_modules
+bash scripts/db.sh start mariadb 3417
+
+export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=3417 NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=jogwise
+node --import tsx scripts/migrate.ts
+
+rebuilt=0
+if build_is_stale "$ROOT/.output"; then
+  log "building the app (about a minute)"
+  npx nuxt build > "$DATA_DIR/build.log" 2>&1 || { tail -40 "$DATA_DIR/build.log"; die "build failed (full log: .data/build.log)"; }
+  rebuilt=1
+fi
+
+if pid_alive "$SERVER_PID" && [ "$rebuilt" = 0 ]; then
+  log "the app is already running (pid $(cat "$SERVER_PID"))"
+else
+  stop_pidfile "$SERVER_PID" "the previous app server"
+  log "starting the app on port $PORT"
+  NUXT_SESSION_PASSWORD="$(ensure_session_secret)" NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$DEMO_PASSWORD" \
+    PORT="$PORT" HOST=0.0.0.0 setsid node .output/server/index.mjs >> "$DATA_DIR/server.log" 2>&1 < /dev/null &
+  echo $! > "$SERVER_PID"
+fi
+wait_for_ready "http://127.0.0.1:$PORT/api/health" 90 || { tail -30 "$DATA_DIR/server.log"; die "the app did not become ready (log: .data/server.log)"; }
+
+cat <<TXT
+
+  Jogwise is running at http://localhost:$PORT
+
+  Demo sign-ins (password for all: $DEMO_PASSWORD)
+    owner     owner@demo.jogwise.test
+    trainer   trainer@demo.jogwise.test   (sign-off PIN 2468)
+    operator  operator@demo.jogwise.test
+    trainee   trainee@demo.jogwise.test
+
+  Started in the background: MariaDB on 127.0.0.1:3417 (data in .data/mariadb) and the app
+  server (log in .data/server.log). Stop both with: npm run stop
+
+  Jogwise supplements, and never replaces, the machine maker's manual, local codes and
+  competent practice.
+
+TXT

@@ -1,0 +1,20 @@
+import { IdParamSchema } from '#shared/schemas/user'
+import { MachinePatchSchema } from '#shared/schemas/machine'
+
+export default defineEventHandler(async (event) => {
+  const { id } = paramsValid(event, IdParamSchema)
+  const owner = await requireRole(event, 'owner')
+  const body = await readValid(event, MachinePatchSchema)
+  const current = await findShopMachine(owner, id)
+  // The minimum must stay below the nominal thickness after a partial change too.
+  const nominal = body.spoilboardNominalMm ?? current.spoilboardNominalMm
+  const min = body.spoilboardMinMm ?? current.spoilboardMinMm
+  if (min >= nominal) {
+    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'spoilboardMinMm: the minimum thickness must be less than the nominal thickness.', data: { issues: [{ path: 'spoilboardMinMm', message: 'The minimum thickness must be less than the nominal thickness.' }] } })
+  }
+  // Update the machine, only within the owner's shop
+  await useDB().update(tables.machines).set(body)
+    .where(and(eq(tables.machines.id, id), eq(tables.machines.shopId, owner.shopId)))
+  await recordAudit(owner, 'machine.changed', 'machine', id, { fields: Object.keys(body) })
+  return findShopMachine(owner, id)
+})

@@ -1,0 +1,38 @@
+import type { H3Event } from 'h3'
+import type { Role } from '#shared/types/roles'
+
+export interface ShopUser { id: number, shopId: number, name: string, email: string, role: Role }
+
+/**
+ * The signed-in person, re-read from the database on every call so that a role change or a
+ * deactivation takes effect at once rather than when the cookie expires.
+ */
+export async function requireShopUser(event: H3Event): Promise<ShopUser> {
+  if (event.context.shopUser) return event.context.shopUser as ShopUser
+  const session = await getUserSession(event)
+  if (!session.user) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in first.' })
+  const [row] = await useDB().select({
+    id: tables.users.id, shopId: tables.users.shopId, name: tables.users.name,
+    email: tables.users.email, role: tables.users.role, active: tables.users.active,
+  }).from(tables.users).where(eq(tables.users.id, session.user.id)).limit(1)
+  if (!row || !row.active) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'This sign-in is no longer valid. Sign in again.' })
+  }
+  const user: ShopUser = { id: row.id, shopId: row.shopId, name: row.name, email: row.email, role: row.role }
+  event.context.shopUser = user
+  return user
+}
+
+/** The one role check: 403 with a plain reason when the signed-in role is not allowed. */
+export async function requireRole(event: H3Event, ...roles: Role[]): Promise<ShopUser> {
+  const user = await requireShopUser(event)
+  if (!roles.includes(user.role)) {
+    throw createError({
+      statusCode: 403,
+      statusMessage: 'Forbidden',
+      message: `This needs the ${roles.join(' or ')} role; you are signed in as ${user.role}.`,
+    })
+  }
+  return user
+}

@@ -1,0 +1,51 @@
+// The invented demo shop that `npm start` seeds into an empty database. Every name and number
+// here is made up for demonstration; none describes a real shop, person or machine.
+
+export const DEMO_SHOP_NAME = 'Alder Lane Community Workshop'
+
+export const DEMO_PEOPLE = [
+  { role: 'owner', name: 'Maren Oakes', email: 'owner@demo.jogwise.test' },
+  { role: 'trainer', name: 'Teodor Lind', email: 'trainer@demo.jogwise.test', pin: '2468' },
+  { role: 'operator', name: 'Priya Castell', email: 'operator@demo.jogwise.test' },
+  { role: 'trainee', name: 'Sam Ibarra', email: 'trainee@demo.jogwise.test' },
+] as const
+
+export const DEMO_MACHINES = [
+  {
+    name: 'Big Table',
+    travelXMm: 1250, travelYMm: 2500, travelZMm: 150,
+    units: 'mm', spindleKind: 'water-spindle', hasLengthSensor: true,
+    spoilboardMaterial: 'MDF', spoilboardNominalMm: 19, spoilboardMinMm: 12,
+    accelMmS2: 400, rapidMmMin: 10000,
+    notes: 'Full-sheet gantry router, 1220 × 2440 mm bed, water-cooled spindle with chiller.',
+  },
+  {
+    name: 'Bench Router',
+    travelXMm: 620, travelYMm: 620, travelZMm: 90,
+    units: 'in', spindleKind: 'trim-router', hasLengthSensor: true,
+    spoilboardMaterial: 'MDF', spoilboardNominalMm: 19.05, spoilboardMinMm: 12.7,
+    accelMmS2: 600, rapidMmMin: 5000,
+    notes: 'Benchtop router, 610 × 610 mm bed, trim router spindle.',
+  },
+] as const
+
+/** Seeds the demo shop once: only when the database has no shop at all. */
+export async function seedDemoShopIfEmpty(password: string) {
+  const db = useDB()
+  const [existing] = await db.select({ n: count() }).from(tables.shops)
+  if ((existing?.n ?? 0) > 0) return false
+  if (!password) throw new Error('NUXT_DEMO_PASSWORD is empty; the demo shop needs a password.')
+
+  const passwordHash = await hashPassword(password)
+  await db.transaction(async (tx) => {
+    const [{ id: shopId }] = await tx.insert(tables.shops).values({ name: DEMO_SHOP_NAME, units: 'mm' }).$returningId() as [{ id: number }]
+    for (const p of DEMO_PEOPLE) {
+      await tx.insert(tables.users).values({
+        shopId, name: p.name, email: p.email, role: p.role, passwordHash,
+        pinHash: 'pin' in p ? await hashPassword(p.pin) : null,
+      })
+    }
+    for (const m of DEMO_MACHINES) await tx.insert(tables.machines).values({ ...m, shopId })
+  })
+  return true
+}

@@ -1,0 +1,47 @@
+import type { H3Event } from 'h3'
+import type { z } from 'zod'
+import { toIssues } from '#shared/schemas/issues'
+
+// Every bad input answers 400 with `data.issues: [{ path, message }]` naming the field and the
+// reason; the first issue is repeated in `message` so a plain client still says something useful.
+function invalid(issues: { path: string, message: string }[]) {
+  const first = issues[0]
+  return createError({
+    statusCode: 400,
+    statusMessage: 'Invalid input',
+    message: first ? (first.path ? `${first.path}: ${first.message}` : first.message) : 'Invalid input',
+    data: { issues },
+  })
+}
+
+export async function readValid<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
+  let body: unknown
+  try {
+    body = await readBody(event)
+  }
+  catch {
+    throw invalid([{ path: '', message: 'The request body is not valid JSON.' }])
+  }
+  if (body === undefined || body === null || body === '') throw invalid([{ path: '', message: 'The request needs a JSON body.' }])
+  const parsed = schema.safeParse(body)
+  if (!parsed.success) throw invalid(toIssues(parsed.error))
+  return parsed.data
+}
+
+export function queryValid<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
+  const parsed = schema.safeParse(getQuery(event))
+  if (!parsed.success) throw invalid(toIssues(parsed.error))
+  return parsed.data
+}
+
+export function paramsValid<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
+  const parsed = schema.safeParse(getRouterParams(event, { decode: true }))
+  if (!parsed.success) {
+    throw createError({ statusCode: 404, statusMessage: 'Not found', message: 'No such record.' })
+  }
+  return parsed.data
+}
+
+export function notFound(what = 'record') {
+  return createError({ statusCode: 404, statusMessage: 'Not found', message: `No such ${what}.` })
+}

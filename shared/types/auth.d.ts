@@ -1,0 +1,13 @@
+import type { Role } from './roles'
+
+declare module '#auth-utils' {
+  interface User {
+    id: number
+    shopId: number
+    name: string
+    email: string
+    role: Role
+  }
+}
+
+export {}

@@ -1,0 +1,1 @@
+// Nuxt-environment test setup
