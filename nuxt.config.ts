@@ -45,6 +45,8 @@ export default defineNuxtConfig({
   experimental: { payloadExtraction: false },
   nitro: {
     compressPublicAssets: true,
+    // The test suite builds into its own folder so a running `npm start` server is untouched.
+    ...(process.env.JOGWISE_OUTPUT_DIR && { output: { dir: process.env.JOGWISE_OUTPUT_DIR } }),
   },
   pwa,
   tailwindcss: { cssPath: false, viewer: false },

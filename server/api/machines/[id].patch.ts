@@ -4,8 +4,9 @@ import { MachinePatchSchema } from '#shared/schemas/machine'
 export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, IdParamSchema)
   const owner = await requireRole(event, 'owner')
-  const body = await readValid(event, MachinePatchSchema)
+  // Another shop's machine is 404 before its body is even read.
   const current = await findShopMachine(owner, id)
+  const body = await readValid(event, MachinePatchSchema)
   // The minimum must stay below the nominal thickness after a partial change too.
   const nominal = body.spoilboardNominalMm ?? current.spoilboardNominalMm
   const min = body.spoilboardMinMm ?? current.spoilboardMinMm

@@ -1,0 +1,52 @@
+#!/usr/bin/env bash
+# npm test: the whole suite. Starts what it needs (its own MariaDB on 127.0.0.1:3418 with a
+# fresh database, a built app server on port 3100) and stops everything it started on exit.
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+cd "$ROOT"
+
+TEST_PORT="${JOGWISE_TEST_PORT:-3100}"
+DB_PORT=3418
+OUT_DIR="$ROOT/.data/test-output"
+SERVER_PID="$DATA_DIR/test-server.pid"
+export JOGWISE_DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}"
+export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=$DB_PORT NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=jogwise_test
+export JOGWISE_BASE_URL="http://127.0.0.1:$TEST_PORT"
+
+ensure_apt_packages with-browser
+ensure_node_modules
+
+started_db=0
+cleanup() {
+  stop_pidfile "$SERVER_PID" "the test app server"
+  [ "$started_db" = 1 ] && JOGWISE_DB_NAME=jogwise_test bash scripts/db.sh stop mariadb-test
+  return 0
+}
+trap cleanup EXIT
+
+# 1. Pure code and components: no server needed.
+log "unit and component tests"
+npx vitest run --project unit --project nuxt
+
+# 2. The suite's own database, emptied each run.
+if ! bash scripts/db.sh status mariadb-test | grep -q running; then started_db=1; fi
+JOGWISE_DB_NAME=jogwise_test bash scripts/db.sh start mariadb-test $DB_PORT
+JOGWISE_DB_NAME=jogwise_test bash scripts/db.sh reset-db mariadb-test $DB_PORT
+node --import tsx scripts/migrate.ts
+
+# 3. A production build of its own (so a running `npm start` server is never disturbed).
+if build_is_stale "$OUT_DIR"; then
+  log "building the app for the tests"
+  JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/test-build.log" 2>&1 || { tail -40 "$DATA_DIR/test-build.log"; die "build failed"; }
+fi
+stop_pidfile "$SERVER_PID" "a leftover test app server"
+NUXT_SESSION_PASSWORD="test-session-secret-0123456789abcdef" NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" \
+  PORT="$TEST_PORT" HOST=127.0.0.1 setsid node "$OUT_DIR/server/index.mjs" > "$DATA_DIR/test-server.log" 2>&1 < /dev/null &
+echo $! > "$SERVER_PID"
+wait_for_ready "$JOGWISE_BASE_URL/api/health" 90 || { tail -30 "$DATA_DIR/test-server.log"; die "the test server did not become ready"; }
+
+# 4. HTTP against the real server and MariaDB, then real Chromium.
+log "API tests against MariaDB"
+npx vitest run --project api
+log "browser tests in Chromium"
+npx playwright test
+log "all tests passed"

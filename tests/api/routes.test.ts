@@ -1,0 +1,97 @@
+import { readdirSync, statSync } from 'node:fs'
+import { join, relative } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { as, call, db, DEMO, otherShop, signIn, type DemoRole } from './client'
+
+// Every route under server/api, found on disk, must have a row here saying who may call it.
+// A new route without a row fails the first test, so no route ships without a decision.
+type Who = DemoRole | 'anyone'
+interface Row { allowed: Who[], probe: (ctx: Ctx) => { path: string, body?: unknown }, okStatus: number, crossShop?: boolean }
+interface Ctx { machineId: number, userId: number, otherMachineId: number }
+
+const everyone: Who[] = ['owner', 'trainer', 'operator', 'trainee']
+const ROUTES: Record<string, Row> = {
+  'GET /api/health': { allowed: ['anyone'], probe: () => ({ path: '/api/health' }), okStatus: 200 },
+  'POST /api/auth/login': { allowed: ['anyone'], probe: () => ({ path: '/api/auth/login', body: {} }), okStatus: 400 },
+  'POST /api/auth/logout': { allowed: everyone, probe: () => ({ path: '/api/auth/logout' }), okStatus: 200 },
+  'GET /api/me': { allowed: everyone, probe: () => ({ path: '/api/me' }), okStatus: 200 },
+  'GET /api/users': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/users' }), okStatus: 200 },
+  // Bodies are empty on purpose: an allowed role gets 400 from validation and nothing changes.
+  'POST /api/users': { allowed: ['owner'], probe: () => ({ path: '/api/users', body: {} }), okStatus: 400 },
+  'PATCH /api/users/[id]': { allowed: ['owner'], probe: c => ({ path: `/api/users/${c.userId}`, body: {} }), okStatus: 400 },
+  'GET /api/machines': { allowed: everyone, probe: () => ({ path: '/api/machines' }), okStatus: 200 },
+  'POST /api/machines': { allowed: ['owner'], probe: () => ({ path: '/api/machines', body: {} }), okStatus: 400 },
+  'GET /api/machines/[id]': { allowed: everyone, probe: c => ({ path: `/api/machines/${c.machineId}` }), okStatus: 200, crossShop: true },
+  'PATCH /api/machines/[id]': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}`, body: {} }), okStatus: 400, crossShop: true },
+  'POST /api/machines/[id]/retire': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/retire` }), okStatus: 200, crossShop: true },
+  'POST /api/machines/[id]/reinstate': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/reinstate` }), okStatus: 200, crossShop: true },
+}
+
+function discoverRoutes(dir = join(process.cwd(), 'server/api')): string[] {
+  const out: string[] = []
+  for (const name of readdirSync(dir)) {
+    const full = join(dir, name)
+    if (statSync(full).isDirectory()) { out.push(...discoverRoutes(full)); continue }
+    const m = name.match(/^(.*)\.(get|post|patch|put|delete)\.ts$/)
+    if (!m) continue
+    const route = relative(join(process.cwd(), 'server/api'), join(dir, m[1] === 'index' ? '' : m[1])).split('\\').join('/')
+    out.push(`${m[2].toUpperCase()} /api${route ? `/${route}` : ''}`)
+  }
+  return out.sort()
+}
+
+let ctx: Ctx
+let other: Awaited<ReturnType<typeof otherShop>>
+beforeAll(async () => {
+  const owner = await as('owner')
+  const machine = await call('POST', '/api/machines', { cookie: owner, body: {
+    name: `Matrix Router ${Date.now()}`, travelXMm: 600, travelYMm: 400, travelZMm: 80, units: 'mm',
+    spindleKind: 'air-spindle', hasLengthSensor: false, spoilboardMaterial: 'MDF', spoilboardNominalMm: 18, spoilboardMinMm: 12,
+  } })
+  const user = await call('POST', '/api/users', { cookie: owner, body: { name: 'Matrix Person', email: `matrix-${Date.now()}@demo.jogwise.test`, role: 'operator', password: 'matrix-password' } })
+  other = await otherShop()
+  ctx = { machineId: machine.body.id, userId: user.body.id, otherMachineId: other.machineId }
+})
+afterAll(async () => { await db().end() })
+
+describe('route × role matrix', () => {
+  it('has a row for every route on disk and no row for a missing route', () => {
+    expect(discoverRoutes()).toEqual(Object.keys(ROUTES).sort())
+  })
+
+  const cases = Object.entries(ROUTES).flatMap(([key, row]) =>
+    (['none', 'owner', 'trainer', 'operator', 'trainee'] as const).map(who => [key, who, row] as const))
+
+  it.each(cases)('%s as %s', async (key, who, row) => {
+    const method = key.split(' ')[0]!
+    const { path, body } = row.probe(ctx)
+    // Logging out would end the shared session; give it a fresh one.
+    const cookie = who === 'none' ? undefined : key === 'POST /api/auth/logout' ? await signIn(DEMO[who]) : await as(who)
+    const res = await call(method, path, { cookie, body })
+    const expected = row.allowed.includes('anyone') || (who !== 'none' && row.allowed.includes(who))
+      ? row.okStatus
+      : who === 'none' ? 401 : 403
+    expect(res.status, res.text).toBe(expected)
+    expect(res.body, 'answers JSON').toBeTypeOf('object')
+    expect(res.text).not.toMatch(/at .*\.(mjs|js|ts):\d+|sqlMessage|ER_[A-Z_]+/)
+  })
+
+  const crossShop = Object.entries(ROUTES).filter(([, r]) => r.crossShop)
+  it.each(crossShop)('%s on another shop\'s row answers 404 with none of its data', async (key, row) => {
+    const method = key.split(' ')[0]!
+    const { path, body } = row.probe({ ...ctx, machineId: ctx.otherMachineId })
+    const res = await call(method, path, { cookie: await as('owner'), body })
+    expect(res.status).toBe(404)
+    expect(res.text).not.toContain('Other Router')
+    // and the other shop's owner cannot see ours
+    const back = await call('GET', `/api/machines/${ctx.machineId}`, { cookie: other.cookie })
+    expect(back.status).toBe(404)
+  })
+
+  it('lists only the signed-in shop\'s machines and people', async () => {
+    const mine = await call('GET', '/api/machines', { cookie: other.cookie })
+    expect(mine.body.map((m: any) => m.name)).toEqual(['Other Router'])
+    const people = await call('GET', '/api/users', { cookie: other.cookie })
+    expect(people.body.every((p: any) => p.email.endsWith('@other.jogwise.test'))).toBe(true)
+  })
+})
