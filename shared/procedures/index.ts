@@ -1,0 +1,3 @@
+export * from './schema'
+export * from './starter-library'
+export { isMeaningfulReason, reasonProblem, plainTextProblem, longSentence, MAX_SENTENCE_WORDS, MIN_REASON_CHARS } from './text'

@@ -1,0 +1,219 @@
+import { z } from 'zod'
+import { v7 as uuidv7 } from 'uuid'
+import { toIssues, type FieldIssue } from '../schemas/issues'
+import { reasonProblem } from '../procedures/text'
+import type { Role } from '../types/roles'
+
+// A run is an append-only log of these events. They are made on the tablet (often offline),
+// written to IndexedDB first, synced later and merged by the server, so each one carries its
+// own UUIDv7 id, the run's id, the device's clock time, who did it and on which device.
+
+export const RUN_MODES = ['guided', 'solo'] as const
+export type RunMode = typeof RUN_MODES[number]
+
+/** Roles whose signature counts as a sign-off and who may override a hold (brief: Trainer, Owner). */
+export const SIGNER_ROLES = ['trainer', 'owner'] as const satisfies readonly Role[]
+export type SignerRole = typeof SIGNER_ROLES[number]
+
+export const RUN_EVENT_TYPES = [
+  'run.started',
+  'step.done',
+  'hold.acknowledged',
+  'value.recorded',
+  'note.added',
+  'photo.attached',
+  'plan.attached',
+  'hold.overridden',
+  'signoff.given',
+  'event.undone',
+  'run.finished',
+  'run.abandoned',
+] as const
+export type RunEventType = typeof RUN_EVENT_TYPES[number]
+
+const str = (label: string, max: number) =>
+  z.string({ error: iss => iss.input === undefined ? `${label} is required.` : `${label} must be text.` })
+    .trim()
+    .min(1, `${label} is required.`)
+    .max(max, `${label} must be at most ${max} characters.`)
+
+const positiveId = (label: string) =>
+  z.number({ error: `${label} must be a number.` }).int(`${label} must be a whole number.`).positive(`${label} must be a positive number.`)
+
+// A reason that goes on the record: an override, an abandoned run.
+const reason = (label: string) => str(label, 1000).superRefine((value, ctx) => {
+  const problem = reasonProblem(value)
+  if (problem) ctx.addIssue({ code: 'custom', message: `${label} ${problem}.` })
+})
+
+const stepKey = str('Step key', 60)
+
+const base = {
+  id: z.uuidv7({ error: 'Event id must be a UUIDv7 string made on the device.' }),
+  runId: z.uuid({ error: 'Run id must be a UUID string.' }),
+  at: z.iso.datetime({ offset: true, error: 'Event time must be an ISO 8601 date and time with a time zone, e.g. 2025-03-01T08:15:00.000Z.' }),
+  actorId: positiveId('Actor id'),
+  deviceId: str('Device id', 64),
+}
+
+export const RunStartedSchema = z.object({
+  ...base,
+  type: z.literal('run.started'),
+  procedureVersionId: positiveId('Procedure version id'),
+  machineId: positiveId('Machine id'),
+  mode: z.enum(RUN_MODES, { error: 'Mode must be guided or solo.' }),
+})
+
+export const StepDoneSchema = z.object({ ...base, type: z.literal('step.done'), stepKey })
+
+export const HoldAcknowledgedSchema = z.object({ ...base, type: z.literal('hold.acknowledged'), stepKey })
+
+export const ValueRecordedSchema = z.object({
+  ...base,
+  type: z.literal('value.recorded'),
+  stepKey,
+  value: z.number({ error: iss => typeof iss.input === 'number' ? 'Value must be a finite number.' : 'Value must be a number.' }),
+  unit: str('Unit', 16),
+  // Optional here because an in-range reading needs none; the fold decides whether an
+  // out-of-range reading's reason is good enough (reasonProblem).
+  reason: z.string({ error: 'Reason must be text.' }).trim().max(1000, 'Reason must be at most 1000 characters.').optional()
+    .transform(r => (r === undefined || r === '') ? undefined : r),
+})
+
+export const NoteAddedSchema = z.object({
+  ...base,
+  type: z.literal('note.added'),
+  stepKey: stepKey.optional(),
+  text: str('Note', 2000),
+})
+
+export const PhotoAttachedSchema = z.object({
+  ...base,
+  type: z.literal('photo.attached'),
+  stepKey,
+  // Missing while the photo waits in IndexedDB for the network; the note stands in meanwhile.
+  uploadId: str('Upload id', 64).optional(),
+  note: str('Photo note', 500).optional(),
+})
+
+export const PlanAttachedSchema = z.object({
+  ...base,
+  type: z.literal('plan.attached'),
+  stepKey,
+  planId: str('Plan id', 64).optional(),
+  summary: str('Plan summary', 1000),
+})
+
+export const HoldOverriddenSchema = z.object({
+  ...base,
+  type: z.literal('hold.overridden'),
+  stepKey,
+  reason: reason('Override reason'),
+})
+
+export const SignoffGivenSchema = z.object({
+  ...base,
+  type: z.literal('signoff.given'),
+  // Absent for a sign-off of the whole run.
+  stepKey: stepKey.optional(),
+  signerId: positiveId('Signer id'),
+  signerRole: z.enum(SIGNER_ROLES, { error: 'Signer role must be trainer or owner.' }),
+})
+
+export const EventUndoneSchema = z.object({
+  ...base,
+  type: z.literal('event.undone'),
+  targetId: z.uuid({ error: 'Undo target must be the id of an earlier event.' }),
+})
+
+export const RunFinishedSchema = z.object({ ...base, type: z.literal('run.finished') })
+
+export const RunAbandonedSchema = z.object({
+  ...base,
+  type: z.literal('run.abandoned'),
+  reason: reason('Reason for abandoning the run'),
+})
+
+export const RunEventSchema = z.discriminatedUnion('type', [
+  RunStartedSchema,
+  StepDoneSchema,
+  HoldAcknowledgedSchema,
+  ValueRecordedSchema,
+  NoteAddedSchema,
+  PhotoAttachedSchema,
+  PlanAttachedSchema,
+  HoldOverriddenSchema,
+  SignoffGivenSchema,
+  EventUndoneSchema,
+  RunFinishedSchema,
+  RunAbandonedSchema,
+], {
+  error: iss => iss.code === 'invalid_union'
+    ? `Event type must be one of ${RUN_EVENT_TYPES.join(', ')}.`
+    : 'An event must be an object with id, runId, type, at, actorId and deviceId.',
+})
+
+export type RunEvent = z.output<typeof RunEventSchema>
+export type RunEventInput = z.input<typeof RunEventSchema>
+export type RunEventOf<T extends RunEventType> = Extract<RunEvent, { type: T }>
+
+type BaseKey = keyof typeof base | 'type'
+/** The fields that belong to one event type, without the common envelope. */
+export type RunEventPayload<T extends RunEventType> = Omit<RunEventOf<T>, BaseKey>
+
+export type RunEventResult = { ok: true, event: RunEvent } | { ok: false, issues: FieldIssue[] }
+
+/** Validates one event, e.g. each element of a sync batch. */
+export function parseRunEvent(input: unknown): RunEventResult {
+  const parsed = RunEventSchema.safeParse(input)
+  return parsed.success ? { ok: true, event: parsed.data } : { ok: false, issues: toIssues(parsed.error) }
+}
+
+/** Thrown by makeEvent: the message names the first field and reason, `issues` has them all. */
+export class RunEventError extends Error {
+  constructor(readonly issues: FieldIssue[]) {
+    const first = issues[0]
+    super(first ? (first.path ? `${first.path}: ${first.message}` : first.message) : 'Invalid run event.')
+    this.name = 'RunEventError'
+  }
+}
+
+/** A new event id. UUIDv7 sorts by creation time, which breaks ties between equal clock times. */
+export const newEventId = (): string => uuidv7()
+
+/** A new run id, made on the tablet so a run can start offline. */
+export const newRunId = (): string => uuidv7()
+
+export interface EventContext {
+  runId: string
+  actorId: number
+  deviceId: string
+  /** Defaults to now on this device's clock. */
+  at?: Date | string
+  /** Defaults to a new UUIDv7. */
+  id?: string
+}
+
+type PayloadArgs<T extends RunEventType> = Record<string, never> extends RunEventPayload<T>
+  ? [payload?: RunEventPayload<T>]
+  : [payload: RunEventPayload<T>]
+
+/**
+ * Builds and validates one event, e.g.
+ * `makeEvent(ctx, 'hold.acknowledged', { stepKey: 'isolate-power' })`.
+ * Throws RunEventError naming the field when the payload is wrong.
+ */
+export function makeEvent<T extends RunEventType>(ctx: EventContext, type: T, ...args: PayloadArgs<T>): RunEventOf<T> {
+  const at = ctx.at === undefined ? new Date().toISOString() : typeof ctx.at === 'string' ? ctx.at : ctx.at.toISOString()
+  const parsed = RunEventSchema.safeParse({
+    ...(args[0] ?? {}),
+    id: ctx.id ?? newEventId(),
+    runId: ctx.runId,
+    at,
+    actorId: ctx.actorId,
+    deviceId: ctx.deviceId,
+    type,
+  })
+  if (!parsed.success) throw new RunEventError(toIssues(parsed.error))
+  return parsed.data as RunEventOf<T>
+}

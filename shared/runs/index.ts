@@ -1,0 +1,3 @@
+export * from './events'
+export * from './fold'
+export * from './next-action'
