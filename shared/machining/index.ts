@@ -1,0 +1,12 @@
+// Machining arithmetic shared by the app and the server.
+export * from './units'
+export * from './feeds'
+export * from './motion'
+export * from './surfacing-input'
+export * from './surfacing'
+export * from './travel'
+export * from './gcode'
+export * from './preview'
+export * from './linalg'
+export * from './board'
+export type { Checked, FieldIssue } from './issues'
