@@ -39,13 +39,16 @@ export async function seedDemoShopIfEmpty(password: string) {
   const passwordHash = await hashPassword(password)
   await db.transaction(async (tx) => {
     const [{ id: shopId }] = await tx.insert(tables.shops).values({ name: DEMO_SHOP_NAME, units: 'mm' }).$returningId() as [{ id: number }]
+    let ownerId: number | null = null
     for (const p of DEMO_PEOPLE) {
-      await tx.insert(tables.users).values({
+      const [{ id }] = await tx.insert(tables.users).values({
         shopId, name: p.name, email: p.email, role: p.role, passwordHash,
         pinHash: 'pin' in p ? await hashPassword(p.pin) : null,
-      })
+      }).$returningId() as [{ id: number }]
+      if (p.role === 'owner') ownerId = id
     }
     for (const m of DEMO_MACHINES) await tx.insert(tables.machines).values({ ...m, shopId })
+    await installStarterLibrary(tx, shopId, ownerId)
   })
   return true
 }

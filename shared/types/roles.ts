@@ -10,3 +10,13 @@ export const ROLE_LABELS: Record<Role, string> = {
 
 /** Roles allowed to write and version procedures, override holds and sign off trainees. */
 export const LEAD_ROLES: readonly Role[] = ['owner', 'trainer']
+
+/**
+ * Guided or solo: trainees always run guided; an operator runs solo only where the owner has
+ * qualified them for that procedure; trainers and owners supervise and run solo.
+ */
+export function runModeFor(role: Role, qualified: boolean): 'guided' | 'solo' {
+  if (role === 'trainee') return 'guided'
+  if (role === 'operator') return qualified ? 'solo' : 'guided'
+  return 'solo'
+}

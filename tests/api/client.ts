@@ -1,4 +1,5 @@
 import mysql from 'mysql2/promise'
+import { v7 as uuidv7 } from 'uuid'
 
 // Plain HTTP against the built server that scripts/test.sh started, and a direct connection to
 // the suite's own MariaDB database for arranging cross-shop data and checking rows.
@@ -80,5 +81,11 @@ export async function otherShop() {
     'insert into machines (shop_id, name, travel_x_mm, travel_y_mm, travel_z_mm, units, spindle_kind, has_length_sensor, spoilboard_material, spoilboard_nominal_mm, spoilboard_min_mm) values (?,?,?,?,?,?,?,?,?,?,?)',
     [shopId, 'Other Router', 600, 600, 100, 'mm', 'trim-router', 0, 'MDF', 18, 12],
   )
-  return { shopId, machineId: machine.insertId as number, cookie: await signIn(email, password) }
+  const [[owner]] = await db().query<any[]>('select id from users where email = ?', [email])
+  const [proc] = await db().query<any>('insert into procedures (shop_id, slug, category) values (?, ?, ?)', [shopId, 'other-procedure', 'daily'])
+  const [version] = await db().query<any>('insert into procedure_versions (shop_id, procedure_id, version, title, summary) values (?, ?, 1, ?, ?)', [shopId, proc.insertId, 'Other procedure', 'A procedure of another shop.'])
+  await db().query('update procedures set current_version_id = ? where id = ?', [version.insertId, proc.insertId])
+  const runId = uuidv7()
+  await db().query('insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, now(3))', [runId, shopId, machine.insertId, version.insertId, owner.id, 'solo'])
+  return { shopId, machineId: machine.insertId as number, procedureId: proc.insertId as number, versionId: version.insertId as number, runId, cookie: await signIn(email, password) }
 }

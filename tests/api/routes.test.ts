@@ -1,13 +1,24 @@
 import { readdirSync, statSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { v7 as uuidv7 } from 'uuid'
 import { as, call, db, DEMO, otherShop, signIn, type DemoRole } from './client'
+
+const MATRIX_PROCEDURE = {
+  title: 'Matrix check procedure',
+  summary: 'A short procedure used by the route checks.',
+  category: 'daily',
+  steps: [
+    { key: 'look', kind: 'instruction', title: 'Look at the machine', body: 'Look at the machine.' },
+    { key: 'sign', kind: 'signoff', title: 'Sign off', body: 'Sign the run.', statement: 'I looked at the machine.' },
+  ],
+}
 
 // Every route under server/api, found on disk, must have a row here saying who may call it.
 // A new route without a row fails the first test, so no route ships without a decision.
 type Who = DemoRole | 'anyone'
 interface Row { allowed: Who[], probe: (ctx: Ctx) => { path: string, body?: unknown }, okStatus: number, crossShop?: boolean }
-interface Ctx { machineId: number, userId: number, otherMachineId: number }
+interface Ctx { machineId: number, userId: number, procedureId: number, versionId: number, runId: string }
 
 const everyone: Who[] = ['owner', 'trainer', 'operator', 'trainee']
 const ROUTES: Record<string, Row> = {
@@ -25,6 +36,19 @@ const ROUTES: Record<string, Row> = {
   'PATCH /api/machines/[id]': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}`, body: {} }), okStatus: 400, crossShop: true },
   'POST /api/machines/[id]/retire': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/retire` }), okStatus: 200, crossShop: true },
   'POST /api/machines/[id]/reinstate': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/reinstate` }), okStatus: 200, crossShop: true },
+  'GET /api/procedures': { allowed: everyone, probe: () => ({ path: '/api/procedures' }), okStatus: 200 },
+  'POST /api/procedures': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/procedures', body: {} }), okStatus: 400 },
+  'GET /api/procedures/[id]': { allowed: everyone, probe: c => ({ path: `/api/procedures/${c.procedureId}` }), okStatus: 200, crossShop: true },
+  'PUT /api/procedures/[id]': { allowed: ['owner', 'trainer'], probe: c => ({ path: `/api/procedures/${c.procedureId}`, body: {} }), okStatus: 400, crossShop: true },
+  'POST /api/procedures/[id]/retire': { allowed: ['owner', 'trainer'], probe: c => ({ path: `/api/procedures/${c.procedureId}/retire` }), okStatus: 200, crossShop: true },
+  'GET /api/procedure-versions/[id]': { allowed: everyone, probe: c => ({ path: `/api/procedure-versions/${c.versionId}` }), okStatus: 200, crossShop: true },
+  'GET /api/qualifications': { allowed: everyone, probe: () => ({ path: '/api/qualifications' }), okStatus: 200 },
+  'PUT /api/qualifications': { allowed: ['owner'], probe: () => ({ path: '/api/qualifications', body: {} }), okStatus: 400 },
+  'GET /api/signers': { allowed: everyone, probe: () => ({ path: '/api/signers' }), okStatus: 200 },
+  'POST /api/sync': { allowed: everyone, probe: () => ({ path: '/api/sync', body: {} }), okStatus: 400 },
+  'GET /api/runs': { allowed: everyone, probe: () => ({ path: '/api/runs' }), okStatus: 200 },
+  'GET /api/runs/[id]': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}` }), okStatus: 200, crossShop: true },
+  'POST /api/runs/[id]/signoff-proof': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/signoff-proof`, body: {} }), okStatus: 400, crossShop: true },
 }
 
 function discoverRoutes(dir = join(process.cwd(), 'server/api')): string[] {
@@ -50,7 +74,15 @@ beforeAll(async () => {
   } })
   const user = await call('POST', '/api/users', { cookie: owner, body: { name: 'Matrix Person', email: `matrix-${Date.now()}@demo.jogwise.test`, role: 'operator', password: 'matrix-password' } })
   other = await otherShop()
-  ctx = { machineId: machine.body.id, userId: user.body.id, otherMachineId: other.machineId }
+  const procedure = await call('POST', '/api/procedures', { cookie: owner, body: { procedure: MATRIX_PROCEDURE } })
+  if (procedure.status !== 201) throw new Error(procedure.text)
+  const runId = uuidv7()
+  const started = await call('POST', '/api/sync', { cookie: owner, body: { deviceId: 'matrix', events: [{
+    id: uuidv7(), runId, type: 'run.started', at: new Date().toISOString(), actorId: (await call('GET', '/api/me', { cookie: owner })).body.user.id,
+    deviceId: 'matrix', procedureVersionId: procedure.body.versionId, machineId: machine.body.id, mode: 'solo',
+  }] } })
+  if (started.body.accepted?.length !== 1) throw new Error(started.text)
+  ctx = { machineId: machine.body.id, userId: user.body.id, procedureId: procedure.body.id, versionId: procedure.body.versionId, runId }
 })
 afterAll(async () => { await db().end() })
 
@@ -79,10 +111,10 @@ describe('route × role matrix', () => {
   const crossShop = Object.entries(ROUTES).filter(([, r]) => r.crossShop)
   it.each(crossShop)('%s on another shop\'s row answers 404 with none of its data', async (key, row) => {
     const method = key.split(' ')[0]!
-    const { path, body } = row.probe({ ...ctx, machineId: ctx.otherMachineId })
+    const { path, body } = row.probe({ ...ctx, machineId: other.machineId, procedureId: other.procedureId, versionId: other.versionId, runId: other.runId })
     const res = await call(method, path, { cookie: await as('owner'), body })
     expect(res.status).toBe(404)
-    expect(res.text).not.toContain('Other Router')
+    expect(res.text).not.toMatch(/Other Router|Other procedure/)
     // and the other shop's owner cannot see ours
     const back = await call('GET', `/api/machines/${ctx.machineId}`, { cookie: other.cookie })
     expect(back.status).toBe(404)

@@ -1,0 +1,100 @@
+import { foldRun, makeEvent, newRunId, nextAction } from '#shared/runs'
+import type { RunEvent, RunEventPayload, RunEventType, RunMode } from '#shared/runs'
+import type { ProcedureStep } from '#shared/procedures'
+import type { ServerEvent } from '#shared/schemas/sync'
+
+// A run on this tablet: the exact procedure version it follows, the events the server has,
+// and the events still waiting in the queue, folded by shared/runs. The Run screen only renders
+// this state and appends events; it never decides rules itself.
+
+export interface RunVersion { id: number, procedureId: number, version: number, title: string, summary: string, steps: ProcedureStep[] }
+export interface RunSnapshot {
+  runId: string
+  machineId: number
+  machineName: string
+  version: RunVersion
+  serverEvents: ServerEvent[]
+  savedAt: string
+}
+
+const snapshotKey = (runId: string) => `run:${runId}`
+
+function strip(e: ServerEvent): RunEvent {
+  const { seq: _seq, flag: _flag, ...event } = e
+  return event as unknown as RunEvent
+}
+
+export function useRun(runId: string) {
+  const sync = useSyncStore()
+  const { user } = useUserSession()
+  const snapshot = ref<RunSnapshot | null>(null)
+  const loadError = ref<string | null>(null)
+  const fromCache = ref(false)
+
+  async function load() {
+    await sync.load()
+    const cached = await localStore.get<RunSnapshot>(snapshotKey(runId))
+    if (cached) { snapshot.value = cached; fromCache.value = true }
+    try {
+      const res = await $fetch<{ run: { machineId: number }, version: RunVersion, events: ServerEvent[] }>(`/api/runs/${runId}`, { timeout: 8000 })
+      const machines = await $fetch<{ id: number, name: string }[]>('/api/machines', { timeout: 8000 }).catch(() => [])
+      snapshot.value = {
+        runId,
+        machineId: res.run.machineId,
+        machineName: machines.find(m => m.id === res.run.machineId)?.name ?? cached?.machineName ?? 'Machine',
+        version: res.version,
+        serverEvents: res.events,
+        savedAt: new Date().toISOString(),
+      }
+      fromCache.value = false
+      await localStore.set(snapshotKey(runId), toRaw(snapshot.value))
+    }
+    catch (error: any) {
+      // Offline, or the run's start has not reached the server yet: the tablet's copy stands.
+      if (!snapshot.value) {
+        loadError.value = error?.statusCode === 404
+          ? 'This run is not on this tablet and the server does not know it.'
+          : 'This run is not on this tablet yet, and the server cannot be reached.'
+      }
+    }
+    sync.watch(runId)
+  }
+
+  const events = computed<RunEvent[]>(() => {
+    const byId = new Map<string, RunEvent>()
+    for (const e of snapshot.value?.serverEvents ?? []) byId.set(e.id, strip(e))
+    for (const e of sync.incoming[runId] ?? []) byId.set(e.id, strip(e))
+    // Refused events are shown apart with their reason; they do not count in the run.
+    for (const q of sync.queue) if (q.event.runId === runId && q.state === 'waiting') byId.set(q.event.id, q.event)
+    return [...byId.values()]
+  })
+  const steps = computed(() => snapshot.value?.version.steps ?? [])
+  const state = computed(() => foldRun(steps.value, events.value))
+  const next = computed(() => nextAction(state.value, steps.value, { actorId: user.value?.id }))
+  const refused = computed(() => sync.queue.filter(q => q.event.runId === runId && q.state === 'rejected'))
+  const serverFlags = computed(() => (snapshot.value?.serverEvents ?? []).filter(e => e.flag))
+
+  /** Appends one event: on the tablet first, then to the server when it can. */
+  async function act<T extends RunEventType>(type: T, payload: RunEventPayload<T>, extra?: Record<string, unknown>) {
+    if (!user.value) throw new Error('Sign in first.')
+    const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId() }, type, ...([payload] as any))
+    await sync.enqueue(event, extra)
+    return event
+  }
+
+  return { snapshot, loadError, fromCache, events, steps, state, next, refused, serverFlags, load, act }
+}
+
+/** Starts a run on this tablet (also offline) and returns its id. */
+export async function startRun(args: { machine: { id: number, name: string }, version: RunVersion, mode: RunMode }) {
+  const { user } = useUserSession()
+  if (!user.value) throw new Error('Sign in first.')
+  const runId = newRunId()
+  const snapshot: RunSnapshot = { runId, machineId: args.machine.id, machineName: args.machine.name, version: args.version, serverEvents: [], savedAt: new Date().toISOString() }
+  await localStore.set(snapshotKey(runId), JSON.parse(JSON.stringify(snapshot)))
+  const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId() }, 'run.started', {
+    procedureVersionId: args.version.id, machineId: args.machine.id, mode: args.mode,
+  })
+  await useSyncStore().enqueue(event)
+  return runId
+}

@@ -1,0 +1,14 @@
+import { IdParamSchema } from '#shared/schemas/user'
+import { ProcedurePublishSchema } from '#shared/schemas/procedure'
+
+// Editing publishes a new version; the old one stays exactly as runs followed it.
+export default defineEventHandler(async (event) => {
+  const { id } = paramsValid(event, IdParamSchema)
+  const user = await requireRole(event, 'owner', 'trainer')
+  const existing = await findShopProcedure(user, id)
+  const { procedure, changeNote } = await readValid(event, ProcedurePublishSchema)
+  const result = await useDB().transaction(tx =>
+    publishVersion(tx, { shopId: user.shopId, procedureId: existing.id, procedure, createdBy: user.id, changeNote: changeNote ?? null }))
+  await recordAudit(user, 'procedure.published', 'procedure', existing.id, { version: result.version })
+  return { id: existing.id, ...result }
+})

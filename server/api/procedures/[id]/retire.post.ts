@@ -1,0 +1,13 @@
+import { IdParamSchema } from '#shared/schemas/user'
+
+// Retiring hides a procedure from the Library; its versions and runs stay on record.
+export default defineEventHandler(async (event) => {
+  const { id } = paramsValid(event, IdParamSchema)
+  const user = await requireRole(event, 'owner', 'trainer')
+  await findShopProcedure(user, id)
+  // Mark it retired, only in this shop
+  await useDB().update(tables.procedures).set({ retiredAt: new Date() })
+    .where(and(eq(tables.procedures.id, id), eq(tables.procedures.shopId, user.shopId)))
+  await recordAudit(user, 'procedure.retired', 'procedure', id)
+  return { id, retired: true }
+})

@@ -1,0 +1,19 @@
+import { z } from 'zod'
+
+const ParamsSchema = z.object({ id: z.uuid() })
+
+// One run with the exact procedure version it follows and every stored event (flags included),
+// which is all a tablet needs to fold it and carry on, also on another tablet.
+export default defineEventHandler(async (event) => {
+  const { id } = paramsValid(event, ParamsSchema)
+  const user = await requireShopUser(event)
+  const db = useDB()
+  // The run, only in this shop
+  const [run] = await db.select().from(tables.runs).where(and(eq(tables.runs.id, id), eq(tables.runs.shopId, user.shopId))).limit(1)
+  if (!run) throw notFound('run')
+  const version = (await loadVersions(user.shopId, [run.procedureVersionId])).get(run.procedureVersionId)
+  // The run's events in the order the server stored them
+  const rows = await db.select().from(tables.runEvents).where(and(eq(tables.runEvents.runId, id), eq(tables.runEvents.shopId, user.shopId))).orderBy(asc(tables.runEvents.seq))
+  const { shopId: _shop, ...rest } = run
+  return { run: rest, version, events: rows.map(toServerEvent), cursor: rows.at(-1)?.seq ?? 0 }
+})

@@ -1,0 +1,45 @@
+import { z } from 'zod'
+
+export const MAX_SYNC_EVENTS = 500
+
+/**
+ * Body of POST /api/sync. Events are checked one by one by the server (one bad event must not
+ * sink the batch), so here they are only required to be objects.
+ */
+export const SyncRequestSchema = z.object({
+  deviceId: z.string({ error: 'deviceId must be text.' }).trim().min(1, 'deviceId is required.').max(64, 'deviceId must be at most 64 characters.'),
+  since: z.number({ error: 'since must be a number.' }).int('since must be a whole number.').nonnegative('since must not be negative.').optional(),
+  watch: z.array(z.uuid({ error: 'watch must list run ids (UUIDs).' }), { error: 'watch must be a list of run ids.' })
+    .max(50, 'watch may list at most 50 runs.').optional(),
+  events: z.array(z.record(z.string(), z.unknown(), { error: 'Each event must be an object.' }), { error: 'events must be a list.' })
+    .max(MAX_SYNC_EVENTS, `Send at most ${MAX_SYNC_EVENTS} events per request.`),
+}).strict()
+export type SyncRequest = z.infer<typeof SyncRequestSchema>
+
+export interface SyncRejection { id: string, reason: string }
+
+/** An event as the server returns it: the event itself plus where it stands on the server. */
+export type ServerEvent = Record<string, unknown> & {
+  id: string
+  runId: string
+  type: string
+  at: string
+  actorId: number
+  deviceId: string
+  seq: number
+  flag: string | null
+}
+
+export interface SyncResponse {
+  accepted: string[]
+  rejected: SyncRejection[]
+  events: ServerEvent[]
+  cursor: number
+}
+
+export const SignoffVerifySchema = z.object({
+  runId: z.uuid({ error: 'runId must be the run\'s id.' }),
+  signerId: z.number({ error: 'Pick who is signing.' }).int().positive('Pick who is signing.'),
+  pin: z.string().regex(/^\d{4,8}$/, 'A PIN is 4 to 8 digits.').optional(),
+  password: z.string().min(1, 'Enter the password.').max(200, 'That password is too long.').optional(),
+}).strict().refine(v => v.pin !== undefined || v.password !== undefined, { path: ['pin'], message: 'Enter the PIN or the password of the person signing.' })

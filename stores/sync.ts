@@ -1,0 +1,166 @@
+import { acceptHMRUpdate, defineStore } from 'pinia'
+import type { RunEvent } from '#shared/runs'
+import type { ServerEvent, SyncResponse } from '#shared/schemas/sync'
+import { MAX_SYNC_EVENTS } from '#shared/schemas/sync'
+import { nextDelay } from '~/utils/backoff'
+
+// The offline queue. Every run event is written to IndexedDB before anything else happens,
+// then replayed to POST /api/sync in batches when the network allows: on coming online, on an
+// interval, on demand, with exponential backoff and jitter after failures. Events the server
+// refuses stay here with its reason; nothing is ever removed unless the server accepted it.
+
+export interface QueuedEvent {
+  event: RunEvent
+  /** Extra fields the server needs but the fold does not (a sign-off's proof). */
+  extra?: Record<string, unknown>
+  queuedAt: string
+  state: 'waiting' | 'rejected'
+  reason?: string
+}
+
+const QUEUE_KEY = 'queue'
+const CURSOR_KEY = 'cursor'
+const INTERVAL_MS = 20_000
+
+export const useSyncStore = defineStore('sync', () => {
+  const queue = ref<QueuedEvent[]>([])
+  const loaded = ref(false)
+  const sending = ref(false)
+  const lastSyncAt = ref<string | null>(null)
+  const lastError = ref<string | null>(null)
+  const needsSignIn = ref(false)
+  const failures = ref(0)
+  const cursor = ref(0)
+  const watched = ref<Set<string>>(new Set())
+  /** Server events per run that arrived through sync, for the run views to merge. */
+  const incoming = ref<Record<string, ServerEvent[]>>({})
+  const online = useOnline()
+  let timer: ReturnType<typeof setTimeout> | undefined
+  let writing: Promise<unknown> = Promise.resolve()
+
+  const waiting = computed(() => queue.value.filter(q => q.state === 'waiting'))
+  const rejected = computed(() => queue.value.filter(q => q.state === 'rejected'))
+
+  // Writes are chained so two quick taps can never overwrite each other's copy.
+  function persist() {
+    const snapshot = JSON.parse(JSON.stringify(queue.value)) as QueuedEvent[]
+    writing = writing.then(() => localStore.set(QUEUE_KEY, snapshot))
+    return writing
+  }
+
+  async function load() {
+    if (loaded.value || import.meta.server) return
+    queue.value = (await localStore.get<QueuedEvent[]>(QUEUE_KEY)) ?? []
+    cursor.value = (await localStore.get<number>(CURSOR_KEY)) ?? 0
+    loaded.value = true
+  }
+
+  /** Stores the event on the tablet first; the returned promise resolves once it is safe. */
+  async function enqueue(event: RunEvent, extra?: Record<string, unknown>) {
+    await load()
+    queue.value.push({ event, extra, queuedAt: new Date().toISOString(), state: 'waiting' })
+    await persist()
+    schedule(0)
+  }
+
+  function watch(runId: string) { watched.value.add(runId) }
+
+  async function flush() {
+    await load()
+    const { user } = useUserSession()
+    if (sending.value || !online.value || needsSignIn.value || !user.value) return
+    // Only the signed-in person's events can be sent with their session.
+    const batch = waiting.value.filter(q => q.event.actorId === user.value!.id).slice(0, MAX_SYNC_EVENTS)
+    if (!batch.length && !watched.value.size) return
+    sending.value = true
+    try {
+      const res = await $fetch<SyncResponse>('/api/sync', {
+        method: 'POST',
+        body: {
+          deviceId: useDeviceId(),
+          since: cursor.value,
+          watch: [...watched.value].slice(0, 50),
+          events: batch.map(q => ({ ...q.event, ...q.extra })),
+        },
+        timeout: 15_000,
+      })
+      const accepted = new Set(res.accepted)
+      const reasons = new Map(res.rejected.map(r => [r.id, r.reason]))
+      queue.value = queue.value
+        .filter(q => !accepted.has(q.event.id))
+        .map(q => reasons.has(q.event.id) ? { ...q, state: 'rejected' as const, reason: reasons.get(q.event.id) } : q)
+      await persist()
+      // What the server now holds (our accepted events and others' new ones) joins each run's
+      // copy on the tablet, so a reload offline still shows it.
+      const confirmed: ServerEvent[] = [
+        ...batch.filter(q => accepted.has(q.event.id)).map(q => ({ ...q.event, seq: 0, flag: null }) as ServerEvent),
+        ...res.events,
+      ]
+      for (const e of confirmed) (incoming.value[e.runId] ??= []).push(e)
+      await saveToSnapshots(confirmed)
+      cursor.value = Math.max(cursor.value, res.cursor)
+      await localStore.set(CURSOR_KEY, cursor.value)
+      lastSyncAt.value = new Date().toISOString()
+      lastError.value = null
+      failures.value = 0
+      // More left than one batch holds: go on at once.
+      if (waiting.value.some(q => q.event.actorId === user.value!.id)) schedule(0)
+    }
+    catch (error: any) {
+      failures.value++
+      if (error?.statusCode === 401 || error?.response?.status === 401) {
+        needsSignIn.value = true
+        lastError.value = 'Signed out: sign in again to send the waiting entries.'
+      }
+      else {
+        lastError.value = error?.data?.message ?? 'The server could not be reached.'
+        schedule(nextDelay(failures.value))
+      }
+    }
+    finally {
+      sending.value = false
+    }
+  }
+
+  async function saveToSnapshots(events: ServerEvent[]) {
+    const byRun = new Map<string, ServerEvent[]>()
+    for (const e of events) byRun.set(e.runId, [...(byRun.get(e.runId) ?? []), e])
+    for (const [runId, list] of byRun) {
+      const snap = await localStore.get<{ serverEvents: ServerEvent[] }>(`run:${runId}`)
+      if (!snap) continue
+      const known = new Set(snap.serverEvents.map(e => e.id))
+      snap.serverEvents.push(...list.filter(e => !known.has(e.id)))
+      await localStore.set(`run:${runId}`, snap)
+    }
+  }
+
+  function schedule(ms: number) {
+    if (import.meta.server) return
+    clearTimeout(timer)
+    timer = setTimeout(() => { flush().finally(() => schedule(INTERVAL_MS)) }, ms)
+  }
+
+  /** After signing in again the replay continues where it stopped. */
+  function resume() {
+    needsSignIn.value = false
+    failures.value = 0
+    schedule(0)
+  }
+
+  /** Puts a refused event back in line, e.g. after the reason was dealt with. */
+  async function retry(id: string) {
+    queue.value = queue.value.map(q => q.event.id === id ? { ...q, state: 'waiting' as const, reason: undefined } : q)
+    await persist()
+    schedule(0)
+  }
+
+  function start() {
+    if (import.meta.server) return
+    load().then(() => schedule(0))
+    watchEffect(() => { if (online.value) schedule(0) })
+  }
+
+  return { queue, waiting, rejected, loaded, sending, lastSyncAt, lastError, needsSignIn, online, incoming, cursor, load, enqueue, flush, resume, retry, start, watch }
+})
+
+if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useSyncStore, import.meta.hot))

@@ -1,0 +1,154 @@
+import { v7 as uuidv7 } from 'uuid'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { as, call, db, otherShop } from './client'
+
+// POST /api/sync against the real server and MariaDB: idempotent merge, per-event rejection,
+// convergence of two tablets, and flags for events that went past an open hold.
+
+const PROCEDURE = {
+  title: 'Sync check procedure',
+  summary: 'A short procedure with a hold, used by the sync checks.',
+  category: 'daily',
+  steps: [
+    { key: 'prep', kind: 'instruction', title: 'Prepare the machine', body: 'Get the machine ready.' },
+    { key: 'isolate', kind: 'hold', title: 'Isolate the power', body: 'Switch off and lock the isolator.', signalWord: 'WARNING', hazard: 'Unexpected start-up can injure hands near the cutter.', avoid: 'Lock the isolator off and prove nothing starts.' },
+    { key: 'work', kind: 'instruction', title: 'Do the work', body: 'Do the work with the power off.' },
+    { key: 'measure', kind: 'check', title: 'Measure the gap', body: 'Measure the gap.', label: 'Gap', unit: 'mm', min: 0, max: 1 },
+    { key: 'sign', kind: 'signoff', title: 'Sign off', body: 'Sign the run.', statement: 'The work is done and the machine is safe.' },
+  ],
+}
+
+let versionId: number
+let machineId: number
+const ids: Record<string, number> = {}
+
+const at = (minute: number) => new Date(Date.UTC(2026, 0, 5, 8, minute)).toISOString()
+function ev(runId: string, actor: string, type: string, minute: number, extra: Record<string, unknown> = {}, device = 'tablet-a') {
+  return { id: uuidv7(), runId, type, at: at(minute), actorId: ids[actor], deviceId: device, ...extra }
+}
+const sync = async (role: 'owner' | 'trainer' | 'operator' | 'trainee', events: unknown[], more: Record<string, unknown> = {}) =>
+  call('POST', '/api/sync', { cookie: await as(role), body: { deviceId: 'tablet-a', events, ...more } })
+const rowsOf = async (runId: string) => (await db().query<any[]>('select id, type, flag, actor_id, payload from run_events where run_id = ? order by id', [runId]))[0]
+
+beforeAll(async () => {
+  for (const role of ['owner', 'trainer', 'operator', 'trainee'] as const) {
+    ids[role] = (await call('GET', '/api/me', { cookie: await as(role) })).body.user.id
+  }
+  const made = await call('POST', '/api/procedures', { cookie: await as('owner'), body: { procedure: PROCEDURE } })
+  versionId = made.body.versionId
+  machineId = (await call('GET', '/api/machines', { cookie: await as('owner') })).body[0].id
+})
+afterAll(async () => { await db().end() })
+
+const start = (runId: string, actor: string, mode = 'guided', minute = 0) =>
+  ev(runId, actor, 'run.started', minute, { procedureVersionId: versionId, machineId, mode })
+
+describe('POST /api/sync', () => {
+  it('stores a batch once however many times it is sent', async () => {
+    const runId = uuidv7()
+    const batch = [start(runId, 'trainee'), ev(runId, 'trainee', 'step.done', 1, { stepKey: 'prep' }), ev(runId, 'trainee', 'hold.acknowledged', 2, { stepKey: 'isolate' })]
+    const answers = []
+    for (let i = 0; i < 3; i++) answers.push(await sync('trainee', batch))
+    for (const a of answers) {
+      expect(a.status).toBe(200)
+      expect(a.body.accepted.sort()).toEqual(batch.map(e => e.id).sort())
+      expect(a.body.rejected).toEqual([])
+    }
+    const rows = await rowsOf(runId)
+    expect(rows.map(r => r.id)).toEqual(batch.map(e => e.id).sort())
+    const [[run]] = await db().query<any[]>('select status, current_step_key from runs where id = ?', [runId])
+    expect(run).toMatchObject({ status: 'active', current_step_key: 'work' })
+  })
+
+  it('stores the good events of a batch and rejects the bad one with its reason', async () => {
+    const runId = uuidv7()
+    const bad = { ...ev(runId, 'operator', 'value.recorded', 2, { stepKey: 'measure', unit: 'mm' }), value: 'thin' }
+    const good = [start(runId, 'operator'), ev(runId, 'operator', 'step.done', 1, { stepKey: 'prep' })]
+    const res = await sync('operator', [...good, bad])
+    expect(res.status).toBe(200)
+    expect(res.body.accepted.sort()).toEqual(good.map(e => e.id).sort())
+    expect(res.body.rejected).toEqual([{ id: bad.id, reason: expect.stringContaining('Value must be a number') }])
+    expect((await rowsOf(runId)).map(r => r.id)).toEqual(good.map(e => e.id).sort())
+  })
+
+  it.each([
+    ['a trainee overriding a hold', 'trainee', (r: string) => ev(r, 'trainee', 'hold.overridden', 3, { stepKey: 'isolate', reason: 'The isolator is broken, the trainer said go ahead.' }), 'Only a trainer or the owner may override a hold.'],
+    ['an event made by somebody else', 'trainee', (r: string) => ev(r, 'operator', 'step.done', 3, { stepKey: 'prep' }), 'made by another person'],
+    ['a sign-off without the signer\'s proof', 'trainee', (r: string) => ev(r, 'trainee', 'signoff.given', 3, { stepKey: 'sign', signerId: ids.trainer, signerRole: 'trainer' }), 'was not confirmed'],
+    ['a sign-off with a forged proof', 'trainee', (r: string) => ev(r, 'trainee', 'signoff.given', 3, { stepKey: 'sign', signerId: ids.trainer, signerRole: 'trainer', proof: 'made-up' }), 'was not confirmed'],
+    ['a clock far in the future', 'trainee', (r: string) => ({ ...ev(r, 'trainee', 'step.done', 3, { stepKey: 'prep' }), at: '2099-01-01T00:00:00.000Z' }), 'not believable'],
+  ])('rejects %s', async (_what, role, make, reason) => {
+    const runId = uuidv7()
+    expect((await sync('trainee', [start(runId, 'trainee')])).body.accepted).toHaveLength(1)
+    const bad = make(runId)
+    const res = await sync(role as 'trainee', [bad])
+    expect(res.body.rejected).toEqual([{ id: bad.id, reason: expect.stringContaining(reason) }])
+    expect((await rowsOf(runId)).map(r => r.id)).not.toContain(bad.id)
+  })
+
+  it('accepts a trainer\'s sign-off proven with the trainer\'s PIN', async () => {
+    const runId = uuidv7()
+    await sync('trainee', [start(runId, 'trainee')])
+    const wrong = await call('POST', `/api/runs/${runId}/signoff-proof`, { cookie: await as('trainee'), body: { runId, signerId: ids.trainer, pin: '0000' } })
+    expect(wrong.status).toBe(403)
+    const proof = await call('POST', `/api/runs/${runId}/signoff-proof`, { cookie: await as('trainee'), body: { runId, signerId: ids.trainer, pin: '2468' } })
+    expect(proof.status).toBe(200)
+    const signed = ev(runId, 'trainee', 'signoff.given', 1, { stepKey: 'isolate', signerId: ids.trainer, signerRole: 'trainer', proof: proof.body.proof })
+    expect((await sync('trainee', [signed])).body.accepted).toEqual([signed.id])
+  })
+
+  it('refuses a solo start by a trainee and by an operator not qualified for the procedure', async () => {
+    for (const role of ['trainee', 'operator'] as const) {
+      const runId = uuidv7()
+      const res = await sync(role, [start(runId, role, 'solo'), ev(runId, role, 'step.done', 1, { stepKey: 'prep' })])
+      expect(res.body.accepted).toEqual([])
+      expect(res.body.rejected[0].reason).toMatch(/always guided|not yet qualified/)
+      expect(res.body.rejected[1].reason).toContain('Its run was not accepted')
+    }
+  })
+
+  it('answers "No such run" for another shop\'s run', async () => {
+    const other = await otherShop()
+    const e = ev(other.runId, 'owner', 'step.done', 1, { stepKey: 'prep' })
+    const res = await sync('owner', [e])
+    expect(res.body.rejected).toEqual([{ id: e.id, reason: 'No such run.' }])
+  })
+
+  it('keeps and flags a late event that went past an unacknowledged hold', async () => {
+    const runId = uuidv7()
+    // Tablet B marks "work" done at 08:03 while the hold was only acknowledged at 08:05 on tablet A.
+    await sync('operator', [start(runId, 'operator'), ev(runId, 'operator', 'step.done', 1, { stepKey: 'prep' }), ev(runId, 'operator', 'hold.acknowledged', 5, { stepKey: 'isolate' })])
+    const late = ev(runId, 'operator', 'step.done', 3, { stepKey: 'work' }, 'tablet-b')
+    expect((await sync('operator', [late])).body.accepted).toEqual([late.id])
+    const rows = await rowsOf(runId)
+    expect(rows.find(r => r.id === late.id).flag).toBe('passed-unacknowledged-hold')
+    const [[run]] = await db().query<any[]>('select current_step_key from runs where id = ?', [runId])
+    expect(run.current_step_key).toBe('work')
+  })
+
+  it('brings two tablets that worked on one run offline to the same events', async () => {
+    const runId = uuidv7()
+    await sync('operator', [start(runId, 'operator')])
+    const a = [ev(runId, 'operator', 'step.done', 1, { stepKey: 'prep' }, 'tablet-a'), ev(runId, 'operator', 'note.added', 2, { text: 'Dust shoe brush worn.' }, 'tablet-a')]
+    const b = [ev(runId, 'operator', 'hold.acknowledged', 3, { stepKey: 'isolate' }, 'tablet-b'), ev(runId, 'operator', 'note.added', 4, { text: 'Collet nut cleaned.' }, 'tablet-b')]
+    const resA = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: 'tablet-a', since: 0, events: a } })
+    const resB = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: 'tablet-b', since: 0, events: b } })
+    // B learns A's events at once; A learns B's at its next sync from its cursor.
+    expect(resB.body.events.map((e: any) => e.id)).toEqual(expect.arrayContaining(a.map(e => e.id)))
+    const resA2 = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: 'tablet-a', since: resA.body.cursor, watch: [runId], events: [] } })
+    expect(resA2.body.events.map((e: any) => e.id).sort()).toEqual(b.map(e => e.id).sort())
+    const full = await call('GET', `/api/runs/${runId}`, { cookie: await as('operator') })
+    expect(full.body.events).toHaveLength(5)
+    expect(full.body.run.currentStepKey).toBe('work')
+  })
+
+  it('answers 400 naming the field for a malformed body, and refuses more than 500 events', async () => {
+    const res = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: '', events: 'none' } })
+    expect(res.status).toBe(400)
+    expect(res.body.data.issues.map((i: any) => i.path)).toEqual(expect.arrayContaining(['deviceId', 'events']))
+    const many = Array.from({ length: 501 }, () => ({ id: 'x' }))
+    const big = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: 'a', events: many } })
+    expect(big.status).toBe(400)
+    expect(big.body.message).toContain('at most 500')
+  })
+})
