@@ -26,6 +26,10 @@ export default defineNuxtConfig({
         { name: 'viewport', content: 'width=device-width, initial-scale=1, viewport-fit=cover' },
         { name: 'description', content: 'Machine-side procedures, safety holds and machining arithmetic for a CNC-router shop.' },
       ],
+      link: [
+        { rel: 'icon', type: 'image/png', href: '/icons/jogwise-192.png' },
+        { rel: 'apple-touch-icon', href: '/icons/apple-touch-icon-180.png' },
+      ],
     },
   },
   // Every key is empty here and filled from NUXT_* variables (see .env.example).
@@ -41,10 +45,21 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax' },
     },
   },
+  // The app shell: a client-rendered page the service worker serves for any screen opened
+  // without a network (see pwa.config.ts).
+  routeRules: {
+    '/shell': { ssr: false, prerender: true },
+  },
   // Payload files are fetched separately and fail offline (vitesse nuxt.config.ts note).
   experimental: { payloadExtraction: false },
   nitro: {
     compressPublicAssets: true,
+    prerender: { routes: ['/shell'], crawlLinks: false },
+    // The service worker and manifest must never be served stale (elk modules/pwa).
+    routeRules: {
+      '/sw.js': { headers: { 'cache-control': 'public, max-age=0, must-revalidate' } },
+      '/manifest.webmanifest': { headers: { 'cache-control': 'public, max-age=0, must-revalidate' } },
+    },
     // The test suite builds into its own folder so a running `npm start` server is untouched.
     ...(process.env.JOGWISE_OUTPUT_DIR && { output: { dir: process.env.JOGWISE_OUTPUT_DIR } }),
   },

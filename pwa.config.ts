@@ -1,17 +1,24 @@
 import type { ModuleOptions } from '@vite-pwa/nuxt'
 
-// Service worker and manifest. The offline behaviour (navigation fallback, API read caching,
-// queue replay) is described in DEVELOPERS.md.
+// The service worker that keeps Jogwise working when the shop Wi-Fi drops.
+// - Precache: only build output (js, css, fonts, icons) plus the app shell page `/shell`, a
+//   client-rendered copy of the app that boots from cached data and the remembered session.
+// - Navigations: network first (fresh server-rendered pages online); when the network fails
+//   the shell is served, so a hard reload of any screen — the Run screen too — opens offline.
+// - GET /api/ reads: network first with a short timeout, then the cached copy (its Date header
+//   tells the screen how old it is). Sign-in, session and sync routes are never cached.
+export const API_CACHE = 'jogwise-api'
+
 export const pwa: Partial<ModuleOptions> = {
   registerType: 'prompt',
   scope: '/',
   base: '/',
-  injectRegister: false,
   manifest: {
     id: '/',
     name: 'Jogwise',
     short_name: 'Jogwise',
     description: 'Machine-side procedures and safety holds for a CNC-router shop',
+    start_url: '/',
     theme_color: '#14201c',
     background_color: '#14201c',
     display: 'standalone',
@@ -23,10 +30,37 @@ export const pwa: Partial<ModuleOptions> = {
     ],
   },
   workbox: {
-    globPatterns: ['**/*.{js,css,html,woff2,png,svg,ico,webmanifest}'],
+    globPatterns: ['**/*.{js,css,woff2,png,svg,ico,webmanifest}', 'shell/index.html'],
     cleanupOutdatedCaches: true,
+    // The first install takes over open pages at once; later versions wait for the prompt.
+    clientsClaim: true,
     navigateFallback: null,
+    runtimeCaching: [
+      {
+        urlPattern: ({ request, url }) => request.mode === 'navigate' && !url.pathname.startsWith('/api/'),
+        handler: 'NetworkFirst',
+        options: {
+          cacheName: 'jogwise-pages',
+          networkTimeoutSeconds: 4,
+          precacheFallback: { fallbackURL: '/shell' },
+          cacheableResponse: { statuses: [200] },
+          expiration: { maxEntries: 1, purgeOnQuotaError: true },
+        },
+      },
+      {
+        urlPattern: ({ url, request, sameOrigin }) => sameOrigin && request.method === 'GET' && url.pathname.startsWith('/api/')
+          && !url.pathname.startsWith('/api/_auth/') && !url.pathname.startsWith('/api/auth/'),
+        handler: 'NetworkFirst',
+        method: 'GET',
+        options: {
+          cacheName: 'jogwise-api',
+          networkTimeoutSeconds: 3,
+          cacheableResponse: { statuses: [200] },
+          expiration: { maxEntries: 300, maxAgeSeconds: 60 * 60 * 24 * 14, purgeOnQuotaError: true },
+        },
+      },
+    ],
   },
   client: { installPrompt: false, periodicSyncForUpdates: 3600 },
-  devOptions: { enabled: false },
+  devOptions: { enabled: !!process.env.JOGWISE_DEV_PWA, type: 'module' },
 }

@@ -3,6 +3,7 @@ import type { Role } from '#shared/types/roles'
 /** Storage and cookie keys, all prefixed with the app's name. */
 export const STORAGE_KEY_THEME = 'jogwise-theme'
 export const STORAGE_KEY_DEVICE = 'jogwise-device-id'
+export const STORAGE_KEY_SESSION = 'jogwise-session'
 
 /** Fetch keys of server data, invalidated with refreshNuxtData(key) after a change. */
 export const QUERY_KEYS = {

@@ -20,6 +20,7 @@ export interface QueuedEvent {
 
 const QUEUE_KEY = 'queue'
 const CURSOR_KEY = 'cursor'
+const LAST_SYNC_KEY = 'last-sync'
 const INTERVAL_MS = 20_000
 
 export const useSyncStore = defineStore('sync', () => {
@@ -52,6 +53,7 @@ export const useSyncStore = defineStore('sync', () => {
     if (loaded.value || import.meta.server) return
     queue.value = (await localStore.get<QueuedEvent[]>(QUEUE_KEY)) ?? []
     cursor.value = (await localStore.get<number>(CURSOR_KEY)) ?? 0
+    lastSyncAt.value = (await localStore.get<string>(LAST_SYNC_KEY)) ?? null
     loaded.value = true
   }
 
@@ -101,6 +103,7 @@ export const useSyncStore = defineStore('sync', () => {
       cursor.value = Math.max(cursor.value, res.cursor)
       await localStore.set(CURSOR_KEY, cursor.value)
       lastSyncAt.value = new Date().toISOString()
+      await localStore.set(LAST_SYNC_KEY, lastSyncAt.value)
       lastError.value = null
       failures.value = 0
       // More left than one batch holds: go on at once.
