@@ -5,6 +5,9 @@ import { pwa } from './pwa.config'
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
+  // A separate output folder (the test suite's) gets its own build folder too, so two builds
+  // at once never share intermediate files.
+  ...(process.env.JOGWISE_OUTPUT_DIR && { buildDir: `${process.env.JOGWISE_OUTPUT_DIR}-build` }),
   modules: [
     '@pinia/nuxt',
     '@nuxtjs/tailwindcss',

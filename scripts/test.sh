@@ -7,9 +7,10 @@ cd "$ROOT"
 TEST_PORT="${JOGWISE_TEST_PORT:-3100}"
 DB_PORT=3418
 OUT_DIR="$ROOT/.data/test-output"
-SERVER_PID="$DATA_DIR/test-server.pid"
+SERVER_PID="$DATA_DIR/test-server-$TEST_PORT.pid"
 export JOGWISE_DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}"
-export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=$DB_PORT NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=jogwise_test
+DB_NAME="${JOGWISE_TEST_DB:-jogwise_test}"
+export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=$DB_PORT NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=$DB_NAME
 export JOGWISE_BASE_URL="http://127.0.0.1:$TEST_PORT"
 
 ensure_apt_packages with-browser
@@ -18,7 +19,7 @@ ensure_node_modules
 started_db=0
 cleanup() {
   stop_pidfile "$SERVER_PID" "the test app server"
-  [ "$started_db" = 1 ] && JOGWISE_DB_NAME=jogwise_test bash scripts/db.sh stop mariadb-test
+  [ "$started_db" = 1 ] && [ -z "${JOGWISE_KEEP_DB:-}" ] && bash scripts/db.sh stop mariadb-test
   return 0
 }
 trap cleanup EXIT
@@ -29,8 +30,8 @@ npx vitest run --project unit --project nuxt
 
 # 2. The suite's own database, emptied each run.
 if ! bash scripts/db.sh status mariadb-test | grep -q running; then started_db=1; fi
-JOGWISE_DB_NAME=jogwise_test bash scripts/db.sh start mariadb-test $DB_PORT
-JOGWISE_DB_NAME=jogwise_test bash scripts/db.sh reset-db mariadb-test $DB_PORT
+JOGWISE_DB_NAME=$DB_NAME bash scripts/db.sh start mariadb-test $DB_PORT
+JOGWISE_DB_NAME=$DB_NAME bash scripts/db.sh reset-db mariadb-test $DB_PORT
 node --import tsx scripts/migrate.ts
 
 # 3. A production build of its own (so a running `npm start` server is never disturbed).

@@ -15,3 +15,36 @@ export async function signIn(page: Page, role: keyof typeof DEMO) {
   await page.getByRole('button', { name: 'Sign in' }).click()
   await expect(page.getByRole('heading', { name: 'Floor' })).toBeVisible()
 }
+
+/** Press and hold a control for `ms` (the deliberate gesture that acknowledges a hold). */
+export async function pressAndHold(page: Page, name: RegExp | string, ms = 1800) {
+  const button = page.getByRole('button', { name })
+  await button.hover()
+  await page.mouse.down()
+  await page.waitForTimeout(ms)
+  await page.mouse.up()
+}
+
+/** Signs in, waits until the service worker controls the page and has the reads cached. */
+export async function signInForOffline(page: Page, role: keyof typeof DEMO) {
+  await signIn(page, role)
+  await page.evaluate(() => navigator.serviceWorker.ready)
+  await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true)
+  // The warm-up reads go through the service worker into its cache.
+  await expect.poll(() => page.evaluate(async () => {
+    const cache = await caches.open('jogwise-api')
+    return (await cache.keys()).map(r => new URL(r.url).pathname)
+  }), { timeout: 15_000 }).toEqual(expect.arrayContaining(['/api/machines', '/api/procedures']))
+}
+
+/** Starts a procedure on a machine from the Floor and waits for the Run screen. */
+export async function startProcedure(page: Page, machine: string, procedure: RegExp) {
+  await page.goto('/')
+  await page.getByRole('article', { name: machine }).getByRole('link', { name: 'Start a procedure' }).click()
+  await page.getByRole('button', { name: procedure }).click()
+  await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/)
+  await expect(page.getByTestId('primary-action')).toBeVisible()
+  return page.url().split('/').pop()!
+}
+
+export const syncState = (page: Page) => page.getByTestId('sync-state')

@@ -1,0 +1,79 @@
+import { expect, test } from '@playwright/test'
+import { pressAndHold, signInForOffline, startProcedure, syncState } from './helpers'
+
+// The shop Wi-Fi drops: the run goes on, a hard reload still opens the Run screen from the
+// service worker, and everything entered reaches the server once the network is back.
+
+test('a run goes on offline, survives a hard reload and closing the tab, then syncs', async ({ browser }) => {
+  const context = await browser.newContext()
+  let page = await context.newPage()
+  await signInForOffline(page, 'operator')
+  const runId = await startProcedure(page, 'Bench Router', /Change the collet and bit/)
+  await expect(syncState(page)).toHaveText('Online')
+
+  await context.setOffline(true)
+  await page.reload()
+  await expect(page.getByRole('heading', { level: 1 })).toHaveText('Stop the spindle before you touch the cutter')
+  await expect(syncState(page)).toContainText('Offline')
+
+  // A hold, acknowledged offline with the deliberate gesture; then the next hold.
+  await pressAndHold(page, /Hold to acknowledge/)
+  await expect(page.getByRole('heading', { level: 1 })).toHaveText('Handle cutters by the shank')
+  await pressAndHold(page, /Hold to acknowledge/)
+  await page.getByRole('button', { name: /Done — next step/ }).click()
+  await expect(syncState(page)).toContainText('3 waiting')
+  await page.screenshot({ path: 'test-results/offline-run.png' })
+
+  // Close the tab and open the run again, still offline.
+  await page.close()
+  page = await context.newPage()
+  await page.goto(`/runs/${runId}`)
+  await expect(syncState(page)).toContainText('3 waiting')
+  await expect(page.getByText('3 of 11 done')).toBeVisible()
+
+  await context.setOffline(false)
+  await expect(syncState(page)).toHaveText('Online', { timeout: 30_000 })
+  const stored = await page.request.get(`/api/runs/${runId}`)
+  const body = await stored.json()
+  expect(body.events.map((e: any) => e.type)).toEqual(['run.started', 'hold.acknowledged', 'hold.acknowledged', 'step.done'])
+  expect(body.events.every((e: any) => e.flag === null)).toBe(true)
+  expect(body.run.currentStepKey).toBe(body.version.steps[3].key)
+  await context.close()
+})
+
+test('two tablets on one run, both offline, both online again, end up showing the same', async ({ browser }) => {
+  const a = await browser.newContext()
+  const b = await browser.newContext()
+  const pageA = await a.newPage()
+  const pageB = await b.newPage()
+  await signInForOffline(pageA, 'operator')
+  await signInForOffline(pageB, 'operator')
+  const runId = await startProcedure(pageA, 'Big Table', /Test the emergency stops/)
+  await expect(syncState(pageA)).toHaveText('Online')
+  await pageB.goto(`/runs/${runId}`)
+  await expect(pageB.getByTestId('primary-action')).toBeVisible()
+
+  await a.setOffline(true)
+  await b.setOffline(true)
+  await pageA.getByRole('button', { name: 'Add a note' }).click()
+  await pageA.getByLabel('Note').fill('Tablet A: stop button cap cracked.')
+  await pageA.getByRole('button', { name: 'Save note' }).click()
+  await pageB.getByRole('button', { name: 'Add a note' }).click()
+  await pageB.getByLabel('Note').fill('Tablet B: checked the pendant too.')
+  await pageB.getByRole('button', { name: 'Save note' }).click()
+
+  await a.setOffline(false)
+  await b.setOffline(false)
+  await expect(syncState(pageA)).toHaveText('Online', { timeout: 30_000 })
+  await expect(syncState(pageB)).toHaveText('Online', { timeout: 30_000 })
+  // Each tablet learns the other's note at its next sync (on demand here: tap the chip).
+  for (const page of [pageA, pageB]) {
+    await expect(async () => {
+      await page.getByRole('button', { name: /Send now/ }).click()
+      await expect(page.getByText('Tablet A: stop button cap cracked.')).toBeVisible({ timeout: 2000 })
+      await expect(page.getByText('Tablet B: checked the pendant too.')).toBeVisible({ timeout: 2000 })
+    }).toPass({ timeout: 30_000 })
+  }
+  await a.close()
+  await b.close()
+})
