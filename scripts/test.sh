@@ -40,7 +40,9 @@ if build_is_stale "$OUT_DIR"; then
   JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/test-build.log" 2>&1 || { tail -40 "$DATA_DIR/test-build.log"; die "build failed"; }
 fi
 stop_pidfile "$SERVER_PID" "a leftover test app server"
-NUXT_SESSION_PASSWORD="test-session-secret-0123456789abcdef" NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" \
+# The API tests start a second server from the same build (crash and restart checks).
+export NUXT_SESSION_PASSWORD="test-session-secret-0123456789abcdef" JOGWISE_SERVER_ENTRY="$OUT_DIR/server/index.mjs"
+NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" \
   PORT="$TEST_PORT" HOST=127.0.0.1 setsid node "$OUT_DIR/server/index.mjs" > "$DATA_DIR/test-server.log" 2>&1 < /dev/null &
 echo $! > "$SERVER_PID"
 wait_for_ready "$JOGWISE_BASE_URL/api/health" 90 || { tail -30 "$DATA_DIR/test-server.log"; die "the test server did not become ready"; }
