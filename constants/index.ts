@@ -17,6 +17,7 @@ export interface NavItem { to: string, label: string, icon: string, roles: reado
 /** Screens in the app's rail; only screens that exist are listed. */
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Floor', icon: 'floor', roles: ['owner', 'trainer', 'operator', 'trainee'] },
+  { to: '/library', label: 'Library', icon: 'library', roles: ['owner', 'trainer', 'operator', 'trainee'] },
   { to: '/machines', label: 'Machines', icon: 'machine', roles: ['owner'] },
   { to: '/crew', label: 'Crew', icon: 'crew', roles: ['owner', 'trainer'] },
 ]
