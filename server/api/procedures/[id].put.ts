@@ -6,6 +6,9 @@ export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, IdParamSchema)
   const user = await requireRole(event, 'owner', 'trainer')
   const existing = await findShopProcedure(user, id)
+  if (existing.retiredAt) {
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This procedure is retired; bring it back before publishing a new version.' })
+  }
   const { procedure, changeNote } = await readValid(event, ProcedurePublishSchema)
   const result = await useDB().transaction(tx =>
     publishVersion(tx, { shopId: user.shopId, procedureId: existing.id, procedure, createdBy: user.id, changeNote: changeNote ?? null }))

@@ -1,0 +1,31 @@
+#!/usr/bin/env bash
+# Runs a benchmark that needs the server: its own database (jogwise_bench) on the test MariaDB,
+# the test build, a server on port 3150; stops what it started afterwards.
+#   scripts/bench-server.sh bench/sync.ts
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+cd "$ROOT"
+ensure_apt_packages
+ensure_node_modules
+OUT_DIR="$ROOT/.data/test-output"
+PID="$DATA_DIR/bench-server.pid"
+started_db=0
+bash scripts/db.sh status mariadb-test | grep -q running || started_db=1
+cleanup() {
+  stop_pidfile "$PID" "the benchmark server"
+  [ "$started_db" = 1 ] && bash scripts/db.sh stop mariadb-test
+  return 0
+}
+trap cleanup EXIT
+JOGWISE_DB_NAME=jogwise_bench bash scripts/db.sh start mariadb-test 3418 >/dev/null
+JOGWISE_DB_NAME=jogwise_bench bash scripts/db.sh reset-db mariadb-test 3418 >/dev/null
+export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=3418 NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=jogwise_bench
+node --import tsx scripts/migrate.ts >/dev/null
+if build_is_stale "$OUT_DIR"; then
+  log "building the app"
+  JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/bench-build.log" 2>&1 || { tail -30 "$DATA_DIR/bench-build.log"; die "build failed"; }
+fi
+NUXT_SESSION_PASSWORD=bench-session-secret-0123456789abcdef NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD=shopfloor-demo-1 \
+  PORT=3150 HOST=127.0.0.1 setsid node "$OUT_DIR/server/index.mjs" > "$DATA_DIR/bench-server.log" 2>&1 < /dev/null &
+echo $! > "$PID"
+wait_for_ready http://127.0.0.1:3150/api/health 90 || die "the benchmark server did not start"
+JOGWISE_BASE_URL=http://127.0.0.1:3150 node --import tsx "$@"
