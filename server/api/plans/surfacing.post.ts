@@ -1,0 +1,45 @@
+import { planSurfacing, summarizeSurfacing, surfacingGcode, SurfacingInputSchema } from '#shared/machining'
+
+// Plans a facing on the server with the same shared code the Planner runs in the browser,
+// keeps it (with the run it belongs to, when given) and answers its figures and G-code.
+export default defineEventHandler(async (event) => {
+  const user = await requireShopUser(event)
+  const body = await readValid(event, SurfacingInputSchema)
+  // Another shop's machine or run is simply not found.
+  const machine = body.machineId ? await findShopMachine(user, body.machineId) : null
+  if (body.runId) {
+    // The run, only in this shop
+    const [run] = await useDB().select({ id: tables.runs.id }).from(tables.runs)
+      .where(and(eq(tables.runs.id, body.runId), eq(tables.runs.shopId, user.shopId))).limit(1)
+    if (!run) throw notFound('run')
+  }
+  const result = planSurfacing(body, machine
+    ? {
+        accelMmS2: machine.accelMmS2,
+        rapidMmMin: machine.rapidMmMin,
+        machine: { travelXMm: machine.travelXMm, travelYMm: machine.travelYMm, travelZMm: machine.travelZMm },
+      }
+    : {})
+  if (!result.ok) {
+    const first = result.issues[0]!
+    throw createError({
+      statusCode: 400,
+      statusMessage: 'Invalid input',
+      message: `${first.path}: ${first.message}`,
+      data: { issues: result.issues },
+    })
+  }
+  const summary = summarizeSurfacing(result.plan)
+  const { machineId, runId, ...input } = body
+  // Keep the plan for the shop's record
+  const [row] = await useDB().insert(tables.surfacingPlans).values({
+    shopId: user.shopId,
+    machineId: machineId ?? null,
+    runId: runId ?? null,
+    createdBy: user.id,
+    input,
+    summary,
+  }).$returningId()
+  setResponseStatus(event, 201)
+  return { planId: row!.id, plan: summary, gcode: surfacingGcode(result.plan) }
+})
