@@ -20,6 +20,7 @@ export default {
         'go-ink': v('go-ink'),
         focus: v('focus'),
         danger: v('danger'),
+        'danger-ink': v('danger-ink'),
         warning: v('warning'),
         caution: v('caution'),
         notice: v('notice'),

@@ -18,6 +18,9 @@ export interface NavItem { to: string, label: string, icon: string, roles: reado
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Floor', icon: 'floor', roles: ['owner', 'trainer', 'operator', 'trainee'] },
   { to: '/library', label: 'Library', icon: 'library', roles: ['owner', 'trainer', 'operator', 'trainee'] },
+  { to: '/planner', label: 'Planner', icon: 'planner', roles: ['owner', 'trainer', 'operator', 'trainee'] },
+  { to: '/board', label: 'Board', icon: 'board', roles: ['owner', 'trainer', 'operator', 'trainee'] },
+  { to: '/feeds', label: 'Feeds', icon: 'feeds', roles: ['owner', 'trainer', 'operator', 'trainee'] },
   { to: '/machines', label: 'Machines', icon: 'machine', roles: ['owner'] },
   { to: '/crew', label: 'Crew', icon: 'crew', roles: ['owner', 'trainer'] },
 ]

@@ -36,6 +36,8 @@ const ROUTES: Record<string, Row> = {
   'PATCH /api/machines/[id]': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}`, body: {} }), okStatus: 400, crossShop: true },
   'POST /api/machines/[id]/retire': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/retire` }), okStatus: 200, crossShop: true },
   'POST /api/machines/[id]/reinstate': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/reinstate` }), okStatus: 200, crossShop: true },
+  'GET /api/machines/[id]/readings': { allowed: everyone, probe: c => ({ path: `/api/machines/${c.machineId}/readings` }), okStatus: 200, crossShop: true },
+  'POST /api/machines/[id]/readings': { allowed: everyone, probe: c => ({ path: `/api/machines/${c.machineId}/readings`, body: {} }), okStatus: 400, crossShop: true },
   'GET /api/procedures': { allowed: everyone, probe: () => ({ path: '/api/procedures' }), okStatus: 200 },
   'POST /api/procedures': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/procedures', body: {} }), okStatus: 400 },
   'GET /api/procedures/[id]': { allowed: everyone, probe: c => ({ path: `/api/procedures/${c.procedureId}` }), okStatus: 200, crossShop: true },
@@ -48,6 +50,8 @@ const ROUTES: Record<string, Row> = {
   'POST /api/sync': { allowed: everyone, probe: () => ({ path: '/api/sync', body: {} }), okStatus: 400 },
   'GET /api/runs': { allowed: everyone, probe: () => ({ path: '/api/runs' }), okStatus: 200 },
   'GET /api/runs/[id]': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}` }), okStatus: 200, crossShop: true },
+  'POST /api/plans/surfacing': { allowed: everyone, probe: () => ({ path: '/api/plans/surfacing', body: {} }), okStatus: 400 },
+  'GET /api/plans/[id]': { allowed: everyone, probe: () => ({ path: '/api/plans/999999999' }), okStatus: 404 },
   'POST /api/runs/[id]/signoff-proof': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/signoff-proof`, body: {} }), okStatus: 400, crossShop: true },
 }
 

@@ -1,0 +1,151 @@
+import AxeBuilder from '@axe-core/playwright'
+import { expect, test, type Page } from '@playwright/test'
+import { pressAndHold, signIn, startProcedure } from './helpers'
+
+// The Run screen at 1024×768 with touch: a trainee's guided resurfacing run from the first step
+// to the trainer's sign-off, holds that a quick tap cannot pass, resuming after a reload, and
+// checks of accessibility and touch-target size.
+
+async function versionOf(page: Page, runId: string) {
+  const res = await page.request.get(`/api/runs/${runId}`)
+  return (await res.json()).version as { steps: any[] }
+}
+
+async function trainerSigns(page: Page) {
+  const panel = page.getByTestId('primary-action')
+  await panel.getByText('Teodor Lind').click()
+  await panel.getByLabel(/PIN/).fill('2468')
+  await panel.getByRole('button', { name: 'Sign', exact: true }).click()
+}
+
+/** Works through the run one primary action at a time, as the person at the machine would. */
+async function completeRun(page: Page, runId: string, opts: { checkQuickTap?: boolean } = {}) {
+  const { steps } = await versionOf(page, runId)
+  const action = page.getByTestId('primary-action')
+  let quickTapChecked = !opts.checkQuickTap
+  for (let guard = 0; guard < 200; guard++) {
+    await expect(action).toBeVisible()
+    const heading = (await page.getByRole('heading', { level: 1 }).textContent())?.trim()
+    const step = steps.find(s => s.title === heading)
+    if (await action.getByRole('button', { name: /Finish the run/ }).isVisible()) {
+      await action.getByRole('button', { name: /Finish the run/ }).click()
+      await expect(action.getByText('This run is finished.')).toBeVisible()
+      return
+    }
+    const hold = action.getByRole('button', { name: /Hold to acknowledge/ })
+    if (await hold.isVisible()) {
+      if (!quickTapChecked) {
+        // A quick tap and a double tap do nothing: the same hold is still waiting.
+        await hold.tap()
+        await hold.dblclick()
+        await page.waitForTimeout(300)
+        await expect(page.getByRole('heading', { level: 1 })).toHaveText(heading!)
+        await expect(hold).toBeVisible()
+        await page.screenshot({ path: 'test-results/run-hold.png' })
+        quickTapChecked = true
+      }
+      await pressAndHold(page, /Hold to acknowledge/)
+    }
+    else if (await action.getByText(/A trainer or the owner signs/).isVisible()) {
+      await trainerSigns(page)
+    }
+    else if (await action.getByRole('button', { name: 'Record reading' }).isVisible()) {
+      const value = step?.min !== undefined && step?.max !== undefined ? (step.min + step.max) / 2 : step?.min ?? step?.max ?? 1
+      await action.getByRole('textbox').first().fill(String(value))
+      await action.getByRole('button', { name: 'Record reading' }).click()
+    }
+    else if (await action.getByRole('button', { name: 'Record evidence' }).isVisible()) {
+      await action.getByRole('textbox').fill('Whole board faced, no pencil marks left.')
+      await action.getByRole('button', { name: 'Record evidence' }).click()
+    }
+    else if (await action.getByRole('link', { name: 'Open the Planner' }).isVisible()) {
+      await action.getByRole('link', { name: 'Open the Planner' }).click()
+      await page.getByRole('button', { name: /Attach this plan to the run/ }).click()
+      await page.waitForURL(new RegExp(`/runs/${runId}$`))
+    }
+    else if (await action.getByRole('button', { name: /Done — (next|last) step/ }).isVisible()) {
+      await action.getByRole('button', { name: /Done — (next|last) step/ }).click()
+    }
+    else {
+      // The screen is between two states; look again.
+      await page.waitForTimeout(250)
+      continue
+    }
+    await expect(page.getByRole('heading', { level: 1 })).not.toHaveText(heading!, { timeout: 5000 }).catch(() => {})
+  }
+  throw new Error('the run did not finish within 200 actions')
+}
+
+test('a trainee does the whole resurfacing run, guided, and the trainer signs it off', async ({ page }) => {
+  test.setTimeout(240_000)
+  await signIn(page, 'trainee')
+  const runId = await startProcedure(page, 'Big Table', /Resurface the spoilboard/)
+  await expect(page.getByText('Guided', { exact: true })).toBeVisible()
+  await expect(page.getByLabel('Why this step matters')).toBeVisible()
+  await page.screenshot({ path: 'test-results/run-trainee-start.png' })
+  await completeRun(page, runId, { checkQuickTap: true })
+  await page.screenshot({ path: 'test-results/run-trainee-finished.png' })
+
+  await expect.poll(async () => (await (await page.request.get(`/api/runs/${runId}`)).json()).run.status, { timeout: 30_000 }).toBe('finished')
+  const { events } = await (await page.request.get(`/api/runs/${runId}`)).json()
+  const signoffs = events.filter((e: any) => e.type === 'signoff.given')
+  expect(signoffs.length).toBeGreaterThan(0)
+  expect(signoffs.every((e: any) => e.signerRole === 'trainer')).toBe(true)
+  expect(events.filter((e: any) => e.type === 'hold.acknowledged').length).toBeGreaterThan(5)
+  expect(events.some((e: any) => e.type === 'plan.attached')).toBe(true)
+  expect(events.every((e: any) => e.flag === null)).toBe(true)
+})
+
+test('an operator resumes a run exactly where it was after a reload', async ({ page }) => {
+  await signIn(page, 'operator')
+  await startProcedure(page, 'Bench Router', /Change the collet and bit/)
+  await pressAndHold(page, /Hold to acknowledge/)
+  await pressAndHold(page, /Hold to acknowledge/)
+  const before = await page.getByRole('heading', { level: 1 }).textContent()
+  await page.reload()
+  await expect(page.getByRole('heading', { level: 1 })).toHaveText(before!)
+  await expect(page.getByText('2 of 11 done')).toBeVisible()
+  // Undo takes back only the last action.
+  await page.getByRole('button', { name: 'Add a note' }).click()
+  await page.getByLabel('Note').fill('Collet nut threads look worn.')
+  await page.getByRole('button', { name: 'Save note' }).click()
+  await page.getByRole('button', { name: /^Undo note/ }).click()
+  await expect(page.getByText('Collet nut threads look worn.')).toHaveCount(0)
+})
+
+test('every control on the Run screen is at least 64×64 CSS px', async ({ page }) => {
+  await signIn(page, 'trainer')
+  await startProcedure(page, 'Big Table', /Resurface the spoilboard/)
+  await page.getByRole('button', { name: 'Add a note' }).click()
+  // WCAG 2.2 SC 2.5.5 (Target Size, Enhanced) asks 44×44; Jogwise aims for 64 for gloved hands.
+  const small: string[] = []
+  for (const el of await page.locator('button:visible, a:visible, input:visible, textarea:visible, select:visible').all()) {
+    const box = await el.boundingBox()
+    if (!box || box.width <= 1 || box.height <= 1) continue
+    if (box.width < 64 || box.height < 64) small.push(`${await el.evaluate(e => e.outerHTML.slice(0, 80))} ${box.width}×${box.height}`)
+  }
+  expect(small).toEqual([])
+})
+
+for (const [name, path] of [['Floor', '/'], ['Library', '/library']] as const) {
+  test(`axe finds no serious or critical problem on the ${name}`, async ({ page }) => {
+    await signIn(page, 'operator')
+    await page.goto(path)
+    await page.waitForLoadState('networkidle')
+    const result = await new AxeBuilder({ page }).analyze()
+    expect(result.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => `${v.id}: ${v.help}`)).toEqual([])
+  })
+}
+
+test('axe finds no serious or critical problem on the Run screen, light and dark', async ({ page }) => {
+  await signIn(page, 'trainee')
+  await startProcedure(page, 'Big Table', /Resurface the spoilboard/)
+  await page.getByRole('button', { name: /Done — next step/ }).click()
+  await expect(page.getByRole('button', { name: /Hold to acknowledge/ })).toBeVisible()
+  for (const theme of ['light', 'dark']) {
+    if (theme === 'dark') await page.getByRole('button', { name: 'Use the dark theme' }).click()
+    const result = await new AxeBuilder({ page }).analyze()
+    expect(result.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => `${theme} ${v.id}: ${v.help} ${v.nodes.map(n => n.target.join(' ')).slice(0, 3)}`)).toEqual([])
+  }
+  await page.screenshot({ path: 'test-results/run-dark.png' })
+})
