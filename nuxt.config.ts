@@ -42,6 +42,8 @@ export default defineNuxtConfig({
     demoSeed: '',
     /** Demo password printed by npm start; used only by the seed. */
     demoPassword: '',
+    /** Folder for photo evidence on local disk; empty means <cwd>/.data/uploads. */
+    uploadsDir: '',
     session: {
       password: '',
       maxAge: 60 * 60 * 12,

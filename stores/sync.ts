@@ -18,6 +18,18 @@ export interface QueuedEvent {
   reason?: string
 }
 
+/** A photo kept on the tablet until the server has stored it (key `photo:<uploadId>`). */
+export interface WaitingPhoto {
+  blob: Blob
+  runId: string
+  contentType: string
+  createdAt: string
+  /** The server's reason when it refused the photo; it stays until someone retries. */
+  rejectedReason?: string
+}
+export interface PhotoProblem { uploadId: string, runId: string, reason: string }
+
+export const PHOTO_PREFIX = 'photo:'
 const QUEUE_KEY = 'queue'
 const CURSOR_KEY = 'cursor'
 const LAST_SYNC_KEY = 'last-sync'
@@ -54,6 +66,7 @@ export const useSyncStore = defineStore('sync', () => {
     queue.value = (await localStore.get<QueuedEvent[]>(QUEUE_KEY)) ?? []
     cursor.value = (await localStore.get<number>(CURSOR_KEY)) ?? 0
     lastSyncAt.value = (await localStore.get<string>(LAST_SYNC_KEY)) ?? null
+    await refreshPhotos()
     loaded.value = true
   }
 
@@ -71,6 +84,9 @@ export const useSyncStore = defineStore('sync', () => {
     await load()
     const { user } = useUserSession()
     if (sending.value || !online.value || needsSignIn.value || !user.value) return
+    // Photos go before the events, so an event naming an upload finds it stored.
+    const photos = await uploadPhotos()
+    if (photos.signedOut) return
     // Only the signed-in person's events can be sent with their session.
     const batch = waiting.value.filter(q => q.event.actorId === user.value!.id).slice(0, MAX_SYNC_EVENTS)
     if (!batch.length && !watched.value.size) return
@@ -106,8 +122,8 @@ export const useSyncStore = defineStore('sync', () => {
       await localStore.set(LAST_SYNC_KEY, lastSyncAt.value)
       lastError.value = null
       failures.value = 0
-      // More left than one batch holds: go on at once.
-      if (waiting.value.some(q => q.event.actorId === user.value!.id)) schedule(0)
+      // More left than one batch holds, or a photo waited for its run to reach the server: go on at once.
+      if (waiting.value.some(q => q.event.actorId === user.value!.id) || photos.deferred) schedule(0)
     }
     catch (error: any) {
       failures.value++
@@ -137,6 +153,93 @@ export const useSyncStore = defineStore('sync', () => {
     }
   }
 
+  // --- Photos waiting for the network ---------------------------------------------------------
+  // Each photo is its own IndexedDB entry (a blob is too big to rewrite with the queue) and is
+  // deleted only after the server confirmed it stored the photo.
+  const photosWaiting = ref(0)
+  const photoProblems = ref<PhotoProblem[]>([])
+  let uploading = false
+
+  async function refreshPhotos() {
+    if (import.meta.server) return
+    let count = 0
+    const problems: PhotoProblem[] = []
+    for (const key of await localStore.keys()) {
+      if (!key.startsWith(PHOTO_PREFIX)) continue
+      const photo = await localStore.get<WaitingPhoto>(key)
+      if (!photo) continue
+      if (photo.rejectedReason) problems.push({ uploadId: key.slice(PHOTO_PREFIX.length), runId: photo.runId, reason: photo.rejectedReason })
+      else count++
+    }
+    photosWaiting.value = count
+    photoProblems.value = problems
+  }
+
+  /** Keeps a photo on the tablet; call before recording the event that names it. */
+  async function keepPhoto(uploadId: string, photo: WaitingPhoto) {
+    await localStore.set(PHOTO_PREFIX + uploadId, photo)
+    await refreshPhotos()
+  }
+
+  async function uploadPhotos(): Promise<{ signedOut: boolean, deferred: boolean }> {
+    const result = { signedOut: false, deferred: false }
+    if (uploading) return result
+    uploading = true
+    try {
+      for (const key of await localStore.keys()) {
+        if (!key.startsWith(PHOTO_PREFIX)) continue
+        const photo = await localStore.get<WaitingPhoto>(key)
+        if (!photo || photo.rejectedReason) continue
+        const uploadId = key.slice(PHOTO_PREFIX.length)
+        let res: Response
+        try {
+          res = await fetch(`/api/uploads/${uploadId}?runId=${encodeURIComponent(photo.runId)}`, {
+            method: 'PUT',
+            headers: { 'content-type': photo.contentType, accept: 'application/json' },
+            body: photo.blob,
+            signal: AbortSignal.timeout(60_000),
+          })
+        }
+        catch {
+          break // No network: every photo stays for the next flush.
+        }
+        if (res.ok) { await localStore.del(key); continue }
+        if (res.status === 401) {
+          needsSignIn.value = true
+          lastError.value = 'Signed out: sign in again to send the waiting entries.'
+          result.signedOut = true
+          break
+        }
+        // A run started offline is unknown to the server until its first event is merged.
+        if (res.status === 404 && queue.value.some(q => q.event.runId === photo.runId && q.event.type === 'run.started' && q.state === 'waiting')) {
+          result.deferred = true
+          continue
+        }
+        if (res.status >= 400 && res.status < 500) {
+          const answer = await res.json().catch(() => null)
+          await localStore.set(key, { ...photo, rejectedReason: answer?.message || `The server refused the photo (${res.status}).` })
+          continue
+        }
+        break // A server error: try again later.
+      }
+    }
+    finally {
+      uploading = false
+      await refreshPhotos()
+    }
+    return result
+  }
+
+  /** Sends a refused photo again, e.g. after its run reached the server. */
+  async function retryPhoto(uploadId: string) {
+    const photo = await localStore.get<WaitingPhoto>(PHOTO_PREFIX + uploadId)
+    if (!photo) return
+    const { rejectedReason: _reason, ...rest } = photo
+    await localStore.set(PHOTO_PREFIX + uploadId, rest)
+    await refreshPhotos()
+    schedule(0)
+  }
+
   function schedule(ms: number) {
     if (import.meta.server) return
     clearTimeout(timer)
@@ -163,7 +266,10 @@ export const useSyncStore = defineStore('sync', () => {
     watchEffect(() => { if (online.value) schedule(0) })
   }
 
-  return { queue, waiting, rejected, loaded, sending, lastSyncAt, lastError, needsSignIn, online, incoming, cursor, load, enqueue, flush, resume, retry, start, watch }
+  return {
+    queue, waiting, rejected, loaded, sending, lastSyncAt, lastError, needsSignIn, online, incoming, cursor, load, enqueue, flush, resume, retry, start, watch,
+    photosWaiting, photoProblems, keepPhoto, uploadPhotos, retryPhoto,
+  }
 })
 
 if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useSyncStore, import.meta.hot))

@@ -52,6 +52,9 @@ const ROUTES: Record<string, Row> = {
   'GET /api/runs/[id]': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}` }), okStatus: 200, crossShop: true },
   'POST /api/plans/surfacing': { allowed: everyone, probe: () => ({ path: '/api/plans/surfacing', body: {} }), okStatus: 400 },
   'GET /api/plans/[id]': { allowed: everyone, probe: () => ({ path: '/api/plans/999999999' }), okStatus: 404 },
+  // An empty photo to a fresh id: allowed roles get 400 and nothing is stored.
+  'PUT /api/uploads/[id]': { allowed: everyone, probe: c => ({ path: `/api/uploads/${crypto.randomUUID()}?runId=${c.runId}` }), okStatus: 400, crossShop: true },
+  'GET /api/uploads/[id]': { allowed: everyone, probe: () => ({ path: `/api/uploads/${crypto.randomUUID()}` }), okStatus: 404 },
   'POST /api/runs/[id]/signoff-proof': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/signoff-proof`, body: {} }), okStatus: 400, crossShop: true },
 }
 

@@ -1,0 +1,23 @@
+import { z } from 'zod'
+
+const ParamsSchema = z.object({ id: z.uuid() })
+
+// A stored photo's bytes, for the Run screen and the run record. Its id never changes what it
+// holds, so browsers and the service worker may keep it for good.
+export default defineEventHandler(async (event) => {
+  const { id } = paramsValid(event, ParamsSchema)
+  const user = await requireShopUser(event)
+  // The upload, only in this shop
+  const [row] = await useDB().select({ contentType: tables.uploads.contentType, storageKey: tables.uploads.storageKey })
+    .from(tables.uploads).where(and(eq(tables.uploads.id, id), eq(tables.uploads.shopId, user.shopId))).limit(1)
+  if (!row) throw notFound('photo')
+  const bytes = await usePhotoStorage().get(row.storageKey)
+  if (!bytes) throw createError({ statusCode: 404, statusMessage: 'Not found', message: 'The photo is on record but its file is missing from storage.' })
+  setResponseHeaders(event, {
+    'content-type': row.contentType,
+    'content-length': String(bytes.length),
+    'cache-control': 'private, max-age=31536000, immutable',
+    'x-content-type-options': 'nosniff',
+  })
+  return bytes
+})
