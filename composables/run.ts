@@ -14,6 +14,8 @@ export interface RunSnapshot {
   machineName: string
   version: RunVersion
   serverEvents: ServerEvent[]
+  /** Names of the people in the run's record, by user id. */
+  people?: Record<number, string>
   savedAt: string
 }
 
@@ -36,7 +38,7 @@ export function useRun(runId: string) {
     const cached = await localStore.get<RunSnapshot>(snapshotKey(runId))
     if (cached) { snapshot.value = cached; fromCache.value = true }
     try {
-      const res = await $fetch<{ run: { machineId: number }, version: RunVersion, events: ServerEvent[] }>(`/api/runs/${runId}`, { timeout: 8000 })
+      const res = await $fetch<{ run: { machineId: number }, version: RunVersion, events: ServerEvent[], people: Record<number, string> }>(`/api/runs/${runId}`, { timeout: 8000 })
       const machines = await $fetch<{ id: number, name: string }[]>('/api/machines', { timeout: 8000 }).catch(() => [])
       snapshot.value = {
         runId,
@@ -44,6 +46,7 @@ export function useRun(runId: string) {
         machineName: machines.find(m => m.id === res.run.machineId)?.name ?? cached?.machineName ?? 'Machine',
         version: res.version,
         serverEvents: res.events,
+        people: res.people,
         savedAt: new Date().toISOString(),
       }
       fromCache.value = false
@@ -72,7 +75,8 @@ export function useRun(runId: string) {
   const state = computed(() => foldRun(steps.value, events.value))
   const next = computed(() => nextAction(state.value, steps.value, { actorId: user.value?.id }))
   const refused = computed(() => sync.queue.filter(q => q.event.runId === runId && q.state === 'rejected'))
-  const serverFlags = computed(() => (snapshot.value?.serverEvents ?? []).filter(e => e.flag))
+  /** Flags the server set on stored events (e.g. a late event that passed an open hold). */
+  const serverFlags = computed(() => new Map((snapshot.value?.serverEvents ?? []).filter(e => e.flag).map(e => [e.id, e.flag!])))
 
   /** Appends one event: on the tablet first, then to the server when it can. */
   async function act<T extends RunEventType>(type: T, payload: RunEventPayload<T>, extra?: Record<string, unknown>) {

@@ -2,7 +2,9 @@
 export default defineNuxtRouteMiddleware(async (to) => {
   const { loggedIn } = useUserSession()
   if (to.path === '/login') {
-    if (loggedIn.value) return navigateTo('/')
+    // ?reauth: the server ended the session while the tablet still shows the person; the
+    // queue waits until they sign in again.
+    if (loggedIn.value && !to.query.reauth) return navigateTo('/')
     return
   }
   if (!loggedIn.value) return navigateTo({ path: '/login', query: to.fullPath !== '/' ? { next: to.fullPath } : undefined })

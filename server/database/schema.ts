@@ -210,3 +210,19 @@ export const auditEntries = mysqlTable('audit_entries', {
   index('audit_entries_shop_at_idx').on(t.shopId, t.at),
   index('audit_entries_shop_kind_idx').on(t.shopId, t.kind, t.at),
 ])
+
+// A facing done in a run (the spoilboard resurfacing procedure): how deep the plan cut and the
+// thickness measured afterwards, so the Board history follows the board between grid readings.
+export const spoilboardFacings = mysqlTable('spoilboard_facings', {
+  id: int('id').autoincrement().primaryKey(),
+  shopId: int('shop_id').notNull().references(() => shops.id),
+  machineId: int('machine_id').notNull().references(() => machines.id),
+  runId: varchar('run_id', { length: 36 }).notNull(),
+  depthMm: double('depth_mm'),
+  thicknessMm: double('thickness_mm'),
+  facedAt: timestamp('faced_at', { fsp: 3 }).notNull(),
+  createdAt: createdAt(),
+}, t => [
+  uniqueIndex('spoilboard_facings_run_unique').on(t.runId),
+  index('spoilboard_facings_machine_idx').on(t.machineId, t.facedAt),
+])

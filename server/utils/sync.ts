@@ -191,7 +191,7 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
 /** Folds runs from their stored events and writes back the run summary and event flags. */
 export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
   if (!runIds.length) return
-  const runs = await db.select({ id: tables.runs.id, procedureVersionId: tables.runs.procedureVersionId })
+  const runs = await db.select({ id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId })
     .from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
   const versions = await loadVersions(shopId, [...new Set(runs.map(r => r.procedureVersionId))], db)
   const rows = await db.select(storedColumns).from(tables.runEvents)
@@ -213,6 +213,7 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
     for (const [flag, ids] of changes) {
       await db.update(tables.runEvents).set({ flag }).where(inArray(tables.runEvents.id, ids))
     }
+    await recordFacing(db, shopId, run, state, steps)
     const current = state.steps[state.currentStepIndex]
     await db.update(tables.runs).set({
       status: state.status === 'finished' ? 'finished' : state.status === 'abandoned' ? 'abandoned' : 'active',

@@ -36,6 +36,7 @@ const ROUTES: Record<string, Row> = {
   'PATCH /api/machines/[id]': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}`, body: {} }), okStatus: 400, crossShop: true },
   'POST /api/machines/[id]/retire': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/retire` }), okStatus: 200, crossShop: true },
   'POST /api/machines/[id]/reinstate': { allowed: ['owner'], probe: c => ({ path: `/api/machines/${c.machineId}/reinstate` }), okStatus: 200, crossShop: true },
+  'GET /api/machines/[id]/facings': { allowed: everyone, probe: c => ({ path: `/api/machines/${c.machineId}/facings` }), okStatus: 200, crossShop: true },
   'GET /api/machines/[id]/readings': { allowed: everyone, probe: c => ({ path: `/api/machines/${c.machineId}/readings` }), okStatus: 200, crossShop: true },
   'POST /api/machines/[id]/readings': { allowed: everyone, probe: c => ({ path: `/api/machines/${c.machineId}/readings`, body: {} }), okStatus: 400, crossShop: true },
   'GET /api/procedures': { allowed: everyone, probe: () => ({ path: '/api/procedures' }), okStatus: 200 },

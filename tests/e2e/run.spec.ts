@@ -55,7 +55,9 @@ async function completeRun(page: Page, runId: string, opts: { checkQuickTap?: bo
       await action.getByRole('button', { name: 'Record reading' }).click()
     }
     else if (await action.getByRole('button', { name: 'Record evidence' }).isVisible()) {
-      await action.getByRole('textbox').fill('Whole board faced, no pencil marks left.')
+      // Any real picture will do: the app's own icon stands in for the camera's photo.
+      await action.locator('input[type=file]').setInputFiles('public/icons/jogwise-512.png')
+      await expect(action.getByRole('img')).toBeVisible()
       await action.getByRole('button', { name: 'Record evidence' }).click()
     }
     else if (await action.getByRole('link', { name: 'Open the Planner' }).isVisible()) {
@@ -93,7 +95,19 @@ test('a trainee does the whole resurfacing run, guided, and the trainer signs it
   expect(signoffs.every((e: any) => e.signerRole === 'trainer')).toBe(true)
   expect(events.filter((e: any) => e.type === 'hold.acknowledged').length).toBeGreaterThan(5)
   expect(events.some((e: any) => e.type === 'plan.attached')).toBe(true)
+  const photo = events.find((e: any) => e.type === 'photo.attached')
+  await expect.poll(async () => (await page.request.get(`/api/uploads/${photo.uploadId}`)).status(), { timeout: 30_000 }).toBe(200)
   expect(events.every((e: any) => e.flag === null)).toBe(true)
+
+  // The finished resurfacing run is a facing in the Big Table's board history.
+  const { run } = await (await page.request.get(`/api/runs/${runId}`)).json()
+  const facings = await (await page.request.get(`/api/machines/${run.machineId}/facings`)).json()
+  const facing = facings.find((f: any) => f.runId === runId)
+  expect(facing.depthMm).toBeGreaterThan(0)
+  expect(facing.thicknessMm).toBeCloseTo(15.75, 6)
+  await page.goto(`/runs/${runId}/record`)
+  await expect(page.getByRole('list', { name: 'Record of the run' })).toContainText('Signed by Teodor Lind (trainer)')
+  await page.screenshot({ path: 'test-results/run-record.png' })
 })
 
 test('an operator resumes a run exactly where it was after a reload', async ({ page }) => {

@@ -14,6 +14,11 @@ export default defineEventHandler(async (event) => {
   const version = (await loadVersions(user.shopId, [run.procedureVersionId])).get(run.procedureVersionId)
   // The run's events in the order the server stored them
   const rows = await db.select().from(tables.runEvents).where(and(eq(tables.runEvents.runId, id), eq(tables.runEvents.shopId, user.shopId))).orderBy(asc(tables.runEvents.seq))
+  // Names of everyone who acted or signed in this run, for the record
+  const ids = new Set<number>([run.startedBy, ...rows.map(r => r.actorId)])
+  for (const r of rows) if (typeof r.payload.signerId === 'number') ids.add(r.payload.signerId)
+  const names = await db.select({ id: tables.users.id, name: tables.users.name }).from(tables.users)
+    .where(and(eq(tables.users.shopId, user.shopId), inArray(tables.users.id, [...ids])))
   const { shopId: _shop, ...rest } = run
-  return { run: rest, version, events: rows.map(toServerEvent), cursor: rows.at(-1)?.seq ?? 0 }
+  return { run: rest, version, events: rows.map(toServerEvent), cursor: rows.at(-1)?.seq ?? 0, people: Object.fromEntries(names.map(n => [n.id, n.name])) }
 })
