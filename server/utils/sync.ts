@@ -202,6 +202,8 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
   for (const run of runs) {
     const steps = versions.get(run.procedureVersionId)?.steps ?? []
     const stored = byRun.get(run.id) ?? []
+    // No roles passed: overrides and sign-offs were authorized when they were merged, and a
+    // later role change must not turn yesterday's valid override into a flagged one.
     const state = foldRun(steps, stored.map(toRunEvent))
     const flagById = new Map(state.flagged.map(f => [f.event.id, f.code]))
     // Only rows whose flag changed are written.
