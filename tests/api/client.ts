@@ -1,17 +1,12 @@
 import mysql from 'mysql2/promise'
 import { v7 as uuidv7 } from 'uuid'
+import { DEMO, DEMO_PASSWORD, type DemoRole } from '../demo'
+
+export { DEMO, DEMO_PASSWORD, type DemoRole }
 
 // Plain HTTP against the built server that scripts/test.sh started, and a direct connection to
 // the suite's own MariaDB database for arranging cross-shop data and checking rows.
 export const BASE_URL = process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3100'
-export const DEMO_PASSWORD = process.env.JOGWISE_DEMO_PASSWORD || 'shopfloor-demo-1'
-export const DEMO = {
-  owner: 'owner@demo.jogwise.test',
-  trainer: 'trainer@demo.jogwise.test',
-  operator: 'operator@demo.jogwise.test',
-  trainee: 'trainee@demo.jogwise.test',
-} as const
-export type DemoRole = keyof typeof DEMO
 
 export interface Answer<T = any> { status: number, body: T, text: string }
 

@@ -1,12 +1,8 @@
 import { expect, type Page } from '@playwright/test'
 
-export const DEMO_PASSWORD = process.env.JOGWISE_DEMO_PASSWORD || 'shopfloor-demo-1'
-export const DEMO = {
-  owner: 'owner@demo.jogwise.test',
-  trainer: 'trainer@demo.jogwise.test',
-  operator: 'operator@demo.jogwise.test',
-  trainee: 'trainee@demo.jogwise.test',
-} as const
+import { DEMO, DEMO_PASSWORD } from '../demo'
+
+export { DEMO, DEMO_PASSWORD }
 
 export async function signIn(page: Page, role: keyof typeof DEMO) {
   await page.goto('/login')

@@ -42,10 +42,12 @@ async function completeRun(page: Page, runId: string, opts: { checkQuickTap?: bo
         if (!quickTapChecked) {
           checkingQuickTap = true
           // A quick tap and a double tap do nothing: the same hold is still waiting.
+          // Read the hold's own heading now: the one read above may predate the last render.
+          const holdTitle = (await page.getByRole('heading', { level: 1 }).textContent())!.trim()
           await hold.tap()
           await hold.dblclick()
           await page.waitForTimeout(300)
-          await expect(page.getByRole('heading', { level: 1 })).toHaveText(heading!)
+          await expect(page.getByRole('heading', { level: 1 })).toHaveText(holdTitle)
           await expect(hold).toBeVisible()
           await page.screenshot({ path: 'test-results/run-hold.png' })
           quickTapChecked = true
