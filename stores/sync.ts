@@ -104,17 +104,18 @@ export const useSyncStore = defineStore('sync', () => {
       })
       const accepted = new Set(res.accepted)
       const reasons = new Map(res.rejected.map(r => [r.id, r.reason]))
-      queue.value = queue.value
-        .filter(q => !accepted.has(q.event.id))
-        .map(q => reasons.has(q.event.id) ? { ...q, state: 'rejected' as const, reason: reasons.get(q.event.id) } : q)
-      await persist()
       // What the server now holds (our accepted events and others' new ones) joins each run's
-      // copy on the tablet, so a reload offline still shows it.
+      // copy on the tablet, so a reload offline still shows it. It joins in the same tick as
+      // it leaves the queue: in between, the Run screen would fold without it and step back.
       const confirmed: ServerEvent[] = [
         ...batch.filter(q => accepted.has(q.event.id)).map(q => ({ ...q.event, seq: 0, flag: null }) as ServerEvent),
         ...res.events,
       ]
       for (const e of confirmed) (incoming.value[e.runId] ??= []).push(e)
+      queue.value = queue.value
+        .filter(q => !accepted.has(q.event.id))
+        .map(q => reasons.has(q.event.id) ? { ...q, state: 'rejected' as const, reason: reasons.get(q.event.id) } : q)
+      await persist()
       await saveToSnapshots(confirmed)
       cursor.value = Math.max(cursor.value, res.cursor)
       await localStore.set(CURSOR_KEY, cursor.value)

@@ -116,6 +116,9 @@ export const runs = mysqlTable('runs', {
   mode: mysqlEnum('mode', ['guided', 'solo']).notNull(),
   status: mysqlEnum('status', ['active', 'finished', 'abandoned']).notNull().default('active'),
   currentStepKey: varchar('current_step_key', { length: 60 }),
+  // Spindle time the run recorded (attached plans' cutting time and spindle-time readings),
+  // kept by the fold so the due list can count spindle hours per machine.
+  spindleMinutes: double('spindle_minutes').notNull().default(0),
   startedAt: timestamp('started_at', { fsp: 3 }).notNull(),
   finishedAt: timestamp('finished_at', { fsp: 3 }),
   updatedAt: updatedAt(),
@@ -225,4 +228,84 @@ export const spoilboardFacings = mysqlTable('spoilboard_facings', {
 }, t => [
   uniqueIndex('spoilboard_facings_run_unique').on(t.runId),
   index('spoilboard_facings_machine_idx').on(t.machineId, t.facedAt),
+])
+
+// An e-mail invitation: only the SHA-256 of the one-time token is stored, so a leaked table
+// cannot be turned into working links. Accepting creates the user and stamps accepted_at.
+export const invites = mysqlTable('invites', {
+  id: int('id').autoincrement().primaryKey(),
+  shopId: int('shop_id').notNull().references(() => shops.id),
+  email: varchar('email', { length: 254 }).notNull(),
+  role: mysqlEnum('role', ROLES).notNull(),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  invitedBy: int('invited_by').notNull().references(() => users.id),
+  expiresAt: timestamp('expires_at', { fsp: 3 }).notNull(),
+  acceptedAt: timestamp('accepted_at', { fsp: 3 }),
+  acceptedUserId: int('accepted_user_id').references(() => users.id),
+  revokedAt: timestamp('revoked_at', { fsp: 3 }),
+  createdAt: createdAt(),
+}, t => [
+  uniqueIndex('invites_token_unique').on(t.tokenHash),
+  index('invites_shop_idx').on(t.shopId, t.createdAt),
+])
+
+// Every e-mail goes through this outbox: written in the same transaction as what caused it,
+// sent by a worker with retries, so a mail server that is down loses nothing. dedupe_key makes
+// "send this once" (one alert per override, one digest per shop and day) a unique constraint.
+export const mailOutbox = mysqlTable('mail_outbox', {
+  id: int('id').autoincrement().primaryKey(),
+  shopId: int('shop_id').references(() => shops.id),
+  kind: varchar('kind', { length: 40 }).notNull(),
+  dedupeKey: varchar('dedupe_key', { length: 160 }).notNull(),
+  toAddress: varchar('to_address', { length: 254 }).notNull(),
+  subject: varchar('subject', { length: 200 }).notNull(),
+  textBody: text('text_body').notNull(),
+  htmlBody: text('html_body'),
+  status: mysqlEnum('status', ['waiting', 'sent', 'failed']).notNull().default('waiting'),
+  attempts: int('attempts').notNull().default(0),
+  nextAttemptAt: timestamp('next_attempt_at', { fsp: 3 }).notNull().defaultNow(),
+  lastError: varchar('last_error', { length: 500 }),
+  messageId: varchar('message_id', { length: 200 }),
+  sentAt: timestamp('sent_at', { fsp: 3 }),
+  createdAt: createdAt(),
+}, t => [
+  uniqueIndex('mail_outbox_dedupe_unique').on(t.dedupeKey),
+  index('mail_outbox_due_idx').on(t.status, t.nextAttemptAt),
+])
+
+export const LEDGER_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check'] as const
+
+// What the Ledger lists: one row per event that an owner must be able to find (an override,
+// a late event that passed an open hold, a reading out of range, a check skipped), written by
+// the sync merge from the fold, denormalised so the filters are plain indexed lookups.
+export const ledgerEntries = mysqlTable('ledger_entries', {
+  id: int('id').autoincrement().primaryKey(),
+  shopId: int('shop_id').notNull().references(() => shops.id),
+  eventId: varchar('event_id', { length: 36 }).notNull(),
+  runId: varchar('run_id', { length: 36 }).notNull(),
+  kind: mysqlEnum('kind', LEDGER_KINDS).notNull(),
+  actorId: int('actor_id').notNull().references(() => users.id),
+  machineId: int('machine_id').notNull().references(() => machines.id),
+  procedureId: int('procedure_id').notNull().references(() => procedures.id),
+  stepKey: varchar('step_key', { length: 60 }),
+  at: timestamp('at', { fsp: 3 }).notNull(),
+  detail: json('detail').$type<Record<string, unknown>>().notNull(),
+}, t => [
+  uniqueIndex('ledger_entries_event_kind_unique').on(t.eventId, t.kind),
+  index('ledger_entries_shop_at_idx').on(t.shopId, t.at),
+  index('ledger_entries_shop_kind_idx').on(t.shopId, t.kind, t.at),
+  index('ledger_entries_shop_actor_idx').on(t.shopId, t.actorId, t.at),
+  index('ledger_entries_shop_machine_idx').on(t.shopId, t.machineId, t.at),
+  index('ledger_entries_shop_procedure_idx').on(t.shopId, t.procedureId, t.at),
+])
+
+// Failed sign-ins, per account and per address, for throttling. Old rows are pruned.
+export const signInFailures = mysqlTable('sign_in_failures', {
+  id: int('id').autoincrement().primaryKey(),
+  email: varchar('email', { length: 254 }).notNull(),
+  address: varchar('address', { length: 64 }).notNull(),
+  at: timestamp('at', { fsp: 3 }).notNull().defaultNow(),
+}, t => [
+  index('sign_in_failures_email_idx').on(t.email, t.at),
+  index('sign_in_failures_address_idx').on(t.address, t.at),
 ])

@@ -61,6 +61,23 @@ describe('sync store', () => {
     expect(seen.slice(requests).flatMap(r => r.events)).toEqual([])
   })
 
+  it('never lets an accepted event vanish from the run, not even for one tick', async () => {
+    // The Run screen folds queue ∪ incoming; a gap between the two made it step backwards.
+    const runId = newRunId()
+    const e = event(runId, 1)
+    answer = body => ({ json: { accepted: body.events.map((x: any) => x.id), rejected: [], events: [], cursor: 2 } })
+    const store = useSyncStore()
+    await store.load()
+    store.queue.push({ event: e, queuedAt: '', state: 'waiting' })
+    const visible = () => store.queue.some(q => q.event.id === e.id) || (store.incoming[runId] ?? []).some(x => x.id === e.id)
+    const gaps: boolean[] = []
+    const stop = watchEffect(() => { gaps.push(!visible()) }, { flush: 'sync' })
+    await store.flush()
+    stop()
+    expect(store.queue).toEqual([])
+    expect(gaps.some(Boolean)).toBe(false)
+  })
+
   it('waits for a new sign-in after a 401 and loses nothing', async () => {
     answer = () => ({ status: 401, json: { message: 'Sign in first.' } })
     const store = useSyncStore()
