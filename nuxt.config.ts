@@ -44,6 +44,10 @@ export default defineNuxtConfig({
     demoPassword: '',
     /** Folder for photo evidence on local disk; empty means <cwd>/.data/uploads. */
     uploadsDir: '',
+    /** Where photos go: local (empty, the default) or s3. */
+    storageDriver: '',
+    /** The S3-compatible bucket for the s3 driver; see .env.example. */
+    s3: { endpoint: '', region: '', bucket: '', accessKeyId: '', secretAccessKey: '', forcePathStyle: '' },
     session: {
       password: '',
       maxAge: 60 * 60 * 12,

@@ -1,7 +1,8 @@
 import { createHash, randomUUID } from 'node:crypto'
-import { crc32, deflateSync, inflateSync } from 'node:zlib'
+import { inflateSync } from 'node:zlib'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { v7 as uuidv7 } from 'uuid'
+import { makeJpeg, makePng, pngChunks, WEBP_1PX } from '../support/images'
 import { as, BASE_URL, call, db, otherShop } from './client'
 
 // Photo evidence through PUT/GET /api/uploads/[id] against the built server and real MariaDB:
@@ -18,59 +19,10 @@ const PROCEDURE = {
   ],
 }
 
-/**
- * A real RGB PNG built by the rules of the W3C PNG specification: the 8-byte signature, then
- * IHDR, IDAT (zlib-deflated scanlines, each led by filter type 0) and IEND chunks, each with its
- * length and a CRC-32 over type and data (ISO 3309 / ITU-T V.42 polynomial, node's zlib.crc32).
- */
-function makePng(width: number, height: number, seed = 0) {
-  const chunk = (type: string, data: Buffer) => {
-    const body = Buffer.concat([Buffer.from(type, 'ascii'), data])
-    const out = Buffer.alloc(8 + data.length + 4)
-    out.writeUInt32BE(data.length, 0)
-    body.copy(out, 4)
-    out.writeUInt32BE(crc32(body), 8 + data.length)
-    return out
-  }
-  const ihdr = Buffer.alloc(13)
-  ihdr.writeUInt32BE(width, 0)
-  ihdr.writeUInt32BE(height, 4)
-  ihdr[8] = 8 // bit depth
-  ihdr[9] = 2 // colour type: truecolour
-  const rows = Buffer.alloc(height * (1 + width * 3))
-  for (let y = 0; y < height; y++) {
-    for (let x = 0; x < width * 3; x++) rows[y * (1 + width * 3) + 1 + x] = (x * 37 + y * 11 + seed) & 0xFF
-  }
-  return Buffer.concat([
-    Buffer.from([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A]),
-    chunk('IHDR', ihdr),
-    chunk('IDAT', deflateSync(rows)),
-    chunk('IEND', Buffer.alloc(0)),
-  ])
-}
-
-/** Reads the chunks back and checks each CRC, so the test image is known to be a valid PNG. */
-function pngChunks(bytes: Buffer) {
-  const out: { type: string, data: Buffer }[] = []
-  for (let at = 8; at < bytes.length;) {
-    const length = bytes.readUInt32BE(at)
-    const type = bytes.subarray(at + 4, at + 8).toString('ascii')
-    const data = bytes.subarray(at + 8, at + 8 + length)
-    expect(bytes.readUInt32BE(at + 8 + length), `CRC of ${type}`).toBe(crc32(bytes.subarray(at + 4, at + 8 + length)))
-    out.push({ type, data })
-    at += 12 + length
-  }
-  return out
-}
-
-// A 1×1 lossless WebP, the sample widely used by browser feature checks (from memory): a RIFF
-// container of form type WEBP with one VP8L chunk (RFC 9649).
-const WEBP_1PX = Buffer.from('UklGRhoAAABXRUJQVlA4TA0AAAAvAAAAEAcQERGIiP4HAA==', 'base64')
-
-async function put(id: string, runId: string, bytes: Buffer | string, opts: { cookie?: string, contentType?: string } = {}) {
+async function put(id: string, runId: string, bytes: Buffer | string, opts: { cookie?: string, contentType?: string, headers?: Record<string, string> } = {}) {
   const res = await fetch(`${BASE_URL}/api/uploads/${id}?runId=${runId}`, {
     method: 'PUT',
-    headers: { 'content-type': opts.contentType ?? 'application/octet-stream', accept: 'application/json', cookie: opts.cookie ?? await as('operator') },
+    headers: { 'content-type': opts.contentType ?? 'application/octet-stream', accept: 'application/json', cookie: opts.cookie ?? await as('operator'), ...opts.headers },
     body: bytes,
   })
   const text = await res.text()
@@ -108,6 +60,7 @@ describe('PUT and GET /api/uploads/[id]', () => {
     const png = makePng(40, 30)
     const chunks = pngChunks(png)
     expect(chunks.map(c => c.type)).toEqual(['IHDR', 'IDAT', 'IEND'])
+    expect(chunks.every(c => c.crcOk)).toBe(true)
     expect(inflateSync(chunks[1]!.data).length).toBe(30 * (1 + 40 * 3))
 
     const id = randomUUID()
@@ -143,6 +96,59 @@ describe('PUT and GET /api/uploads/[id]', () => {
     expect(res.status).toBe(415)
     expect(res.body.message).toMatch(/JPEG, PNG or WebP/)
     expect(await rows(id)).toHaveLength(0)
+  })
+
+  it('refuses text under a photo\'s name and label, and files JPEG bytes labelled PNG as JPEG', async () => {
+    // The name says .png and the label image/png, but the bytes are words (no PNG signature).
+    const id = randomUUID()
+    const res = await put(id, runId, 'PNG is what the name says; these are words.\n', { contentType: 'image/png', headers: { 'content-disposition': 'inline; filename="bed.png"' } })
+    expect(res.status).toBe(415)
+    expect(res.body.message).toMatch(/JPEG, PNG or WebP/)
+    expect(await rows(id)).toHaveLength(0)
+
+    // The first bytes decide (ITU-T T.81 SOI marker), not the label.
+    const jpeg = makeJpeg(16, 16)
+    const jpegId = randomUUID()
+    const stored = await put(jpegId, runId, jpeg, { contentType: 'image/png', headers: { 'content-disposition': 'inline; filename="bed.png"' } })
+    expect(stored.status, stored.text).toBe(201)
+    expect(stored.body.contentType).toBe('image/jpeg')
+    const row = await rows(jpegId)
+    expect(row[0].storage_key).toBe(`${row[0].shop_id}/${jpegId}.jpg`)
+    const back = await fetch(`${BASE_URL}/api/uploads/${jpegId}`, { headers: { cookie: await as('operator') } })
+    expect(back.headers.get('content-type')).toBe('image/jpeg')
+    expect(Buffer.from(await back.arrayBuffer()).equals(jpeg)).toBe(true)
+  })
+
+  it('refuses a file name with folder parts with 400 and stores nothing', async () => {
+    const png = makePng(4, 4, 1)
+    const cases: [Record<string, string>, string][] = [
+      [{ 'content-disposition': 'attachment; filename="../../etc/passwd.png"' }, 'content-disposition'],
+      // RFC 6266 / RFC 8187 extended form, percent-encoded: ../x.png
+      [{ 'content-disposition': 'attachment; filename*=UTF-8\'\'..%2Fx.png' }, 'content-disposition'],
+      [{ 'x-file-name': 'photos\\..\\x.png' }, 'x-file-name'],
+      [{ 'x-file-name': '..' }, 'x-file-name'],
+    ]
+    for (const [headers, path] of cases) {
+      const id = randomUUID()
+      const res = await put(id, runId, png, { contentType: 'image/png', headers })
+      expect(res.status, JSON.stringify(headers)).toBe(400)
+      expect(res.body.data.issues[0].path).toBe(path)
+      expect(res.body.message).toMatch(/folder parts/)
+      expect(await rows(id)).toHaveLength(0)
+    }
+    // An id with path parts never reaches storage: anything but a UUID is no such upload.
+    for (const bad of ['..%2Fx', '..%5Cx', '..x', `${randomUUID()}%2F..`]) {
+      const res = await fetch(`${BASE_URL}/api/uploads/${bad}?runId=${runId}`, { method: 'PUT', headers: { cookie: await as('operator'), accept: 'application/json' }, body: png })
+      expect(res.status, bad).toBe(404)
+    }
+    const [[count]] = await db().query<any[]>('select count(*) as n from uploads where storage_key not regexp ?', ['^[0-9]+/[0-9a-f-]{36}[.](jpg|png|webp)$'])
+    expect(Number(count.n)).toBe(0)
+    // A plain name is ignored: the server makes the key from shop and upload id.
+    const id = randomUUID()
+    const plain = await put(id, runId, png, { contentType: 'image/png', headers: { 'content-disposition': 'attachment; filename="my bed.png"' } })
+    expect(plain.status, plain.text).toBe(201)
+    const row = await rows(id)
+    expect(row[0].storage_key).toBe(`${row[0].shop_id}/${id}.png`)
   })
 
   it('refuses a photo over 10 MB with 413, at the route and at the /api body limit', async () => {

@@ -1,51 +1,12 @@
-import { crc32, deflateSync } from 'node:zlib'
 import { expect, request, test } from '@playwright/test'
+import { jpegSize, makePng } from '../support/images'
 import { DEMO, DEMO_PASSWORD, signInForOffline, startProcedure, syncState } from './helpers'
 
 // Photo evidence with the shop Wi-Fi down: the picture is scaled down on the tablet, kept in
 // IndexedDB, shown on the step card from there, and uploaded once the network is back.
 
-/** An RGB PNG by the W3C PNG specification (signature, IHDR, IDAT, IEND, CRC-32 per chunk). */
-function makePng(width: number, height: number) {
-  const chunk = (type: string, data: Buffer) => {
-    const body = Buffer.concat([Buffer.from(type, 'ascii'), data])
-    const out = Buffer.alloc(12 + data.length)
-    out.writeUInt32BE(data.length, 0)
-    body.copy(out, 4)
-    out.writeUInt32BE(crc32(body), 8 + data.length)
-    return out
-  }
-  const ihdr = Buffer.alloc(13)
-  ihdr.writeUInt32BE(width, 0)
-  ihdr.writeUInt32BE(height, 4)
-  ihdr[8] = 8
-  ihdr[9] = 2
-  const stride = 1 + width * 3
-  const rows = Buffer.alloc(height * stride)
-  for (let y = 0; y < height; y++) {
-    for (let x = 0; x < width; x++) {
-      const at = y * stride + 1 + x * 3
-      // A board-like picture: brown with darker stripes every 100 px.
-      const stripe = Math.floor(x / 100) % 2 === 0
-      rows[at] = stripe ? 181 : 140
-      rows[at + 1] = stripe ? 140 : 104
-      rows[at + 2] = stripe ? 92 : 64
-    }
-  }
-  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(rows)), chunk('IEND', Buffer.alloc(0))])
-}
-
-/** Width and height from a JPEG's start-of-frame segment (ITU-T T.81, B.2.2: SOF0–SOF2). */
-function jpegSize(bytes: Buffer) {
-  for (let at = 2; at < bytes.length;) {
-    if (bytes[at] !== 0xFF) throw new Error(`no marker at ${at}`)
-    const marker = bytes[at + 1]!
-    const length = bytes.readUInt16BE(at + 2)
-    if (marker >= 0xC0 && marker <= 0xC2) return { height: bytes.readUInt16BE(at + 5), width: bytes.readUInt16BE(at + 7) }
-    at += 2 + length
-  }
-  throw new Error('no start-of-frame segment')
-}
+/** A board-like picture: brown with darker stripes every 100 px. */
+const boardStripes = (x: number): [number, number, number] => Math.floor(x / 100) % 2 === 0 ? [181, 140, 92] : [140, 104, 64]
 
 const localPhotoKeys = () => new Promise<string[]>((resolve, reject) => {
   const open = indexedDB.open('jogwise')
@@ -82,7 +43,7 @@ test('a photo taken offline waits on the tablet and is uploaded when the network
   await context.setOffline(true)
   await expect(syncState(page)).toContainText('Offline')
   // A 2400 × 1200 picture, as a tablet camera might give (smaller than a real one, same shape).
-  await page.getByLabel('Take a photo').setInputFiles({ name: 'bed.png', mimeType: 'image/png', buffer: makePng(2400, 1200) })
+  await page.getByLabel('Take a photo').setInputFiles({ name: 'bed.png', mimeType: 'image/png', buffer: makePng(2400, 1200, boardStripes) })
   await expect(page.getByTestId('photo-preview')).toBeVisible()
   await page.getByLabel('Note (optional)').fill('Bed clear, sensor unplugged.')
   await page.screenshot({ path: 'test-results/photo-capture.png' })

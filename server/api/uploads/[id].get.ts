@@ -11,13 +11,14 @@ export default defineEventHandler(async (event) => {
   const [row] = await useDB().select({ contentType: tables.uploads.contentType, storageKey: tables.uploads.storageKey })
     .from(tables.uploads).where(and(eq(tables.uploads.id, id), eq(tables.uploads.shopId, user.shopId))).limit(1)
   if (!row) throw notFound('photo')
-  const bytes = await usePhotoStorage().get(row.storageKey)
-  if (!bytes) throw createError({ statusCode: 404, statusMessage: 'Not found', message: 'The photo is on record but its file is missing from storage.' })
+  // Streamed from disk or S3, never held whole in memory.
+  const photo = await usePhotoStorage().open(row.storageKey)
+  if (!photo) throw createError({ statusCode: 404, statusMessage: 'Not found', message: 'The photo is on record but its file is missing from storage.' })
   setResponseHeaders(event, {
     'content-type': row.contentType,
-    'content-length': String(bytes.length),
+    'content-length': photo.bytes,
     'cache-control': 'private, max-age=31536000, immutable',
     'x-content-type-options': 'nosniff',
   })
-  return bytes
+  return sendStream(event, photo.body)
 })

@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto'
+import type { H3Event } from 'h3'
 import { z } from 'zod'
 
 const ParamsSchema = z.object({ id: z.uuid() })
@@ -19,6 +20,7 @@ export default defineEventHandler(async (event) => {
   const [run] = await db.select({ id: tables.runs.id }).from(tables.runs)
     .where(and(eq(tables.runs.id, runId), eq(tables.runs.shopId, user.shopId))).limit(1)
   if (!run) throw notFound('run')
+  refusePathNames(event)
 
   const body = await readRawBody(event, false)
   if (!body?.length) {
@@ -67,4 +69,31 @@ function sameUpload(row: { id: string, shopId: number, contentType: string, byte
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This upload id already holds a different photo; take the photo again to give it a new id.' })
   }
   return stored(row)
+}
+
+/**
+ * The server names every photo itself and never uses a client's file name. A name that tries to
+ * reach another folder is still refused aloud, so a wrong client is noticed rather than ignored.
+ */
+function refusePathNames(event: H3Event) {
+  const names: { path: string, value: string }[] = []
+  // RFC 6266 Content-Disposition: filename="…" or filename*=UTF-8''… (percent-encoded)
+  const disposition = getRequestHeader(event, 'content-disposition') ?? ''
+  for (const match of disposition.matchAll(/filename(\*?)\s*=\s*(?:"([^"]*)"|([^;]*))/gi)) {
+    let value = (match[2] ?? match[3] ?? '').trim()
+    if (match[1]) {
+      value = value.replace(/^[\w-]*'[^']*'/, '')
+      try { value = decodeURIComponent(value) }
+      catch {}
+    }
+    names.push({ path: 'content-disposition', value })
+  }
+  const plain = getRequestHeader(event, 'x-file-name')
+  if (plain !== undefined) names.push({ path: 'x-file-name', value: plain })
+  const issues = names
+    .filter(n => /[/\\\0]/.test(n.value) || n.value === '.' || n.value === '..')
+    .map(n => ({ path: n.path, message: `The file name ${JSON.stringify(n.value)} has folder parts; a photo name may not contain / or \\ (the server names every photo itself).` }))
+  if (issues.length) {
+    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: issues[0]!.message, data: { issues } })
+  }
 }
