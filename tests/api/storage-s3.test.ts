@@ -230,7 +230,11 @@ describe('the app with NUXT_STORAGE_DRIVER=s3', () => {
     expect((await putPhoto(app.url, id, other.runId, theirs, otherCookie)).status).toBe(201)
     const seen = await fetch(`${app.url}/api/uploads/${id}`, { headers: { cookie: await signIn(app.url, DEMO.owner), accept: 'application/json' } })
     expect(seen.status).toBe(404)
-    expect(await seen.text()).not.toContain(String(other.shopId) + '/')
+    const said = await seen.json()
+    expect(said.message).toBe('No such photo.')
+    // Neither the other shop's key nor its bucket shows through.
+    expect(JSON.stringify(said)).not.toContain(`${other.shopId}/${id}`)
+    expect(JSON.stringify(said)).not.toContain(BUCKET)
     const own = await fetch(`${app.url}/api/uploads/${id}`, { headers: { cookie: otherCookie } })
     expect(sha256(Buffer.from(await own.arrayBuffer()))).toBe(sha256(theirs))
   })

@@ -20,5 +20,7 @@ export default defineEventHandler(async (event) => {
     'cache-control': 'private, max-age=31536000, immutable',
     'x-content-type-options': 'nosniff',
   })
+  // A tablet that goes away mid-download must not hold the store's connection open.
+  event.node.res.once('close', () => photo.body.destroy())
   return sendStream(event, photo.body)
 })
