@@ -48,6 +48,15 @@ export default defineNuxtConfig({
     storageDriver: '',
     /** The S3-compatible bucket for the s3 driver; see .env.example. */
     s3: { endpoint: '', region: '', bucket: '', accessKeyId: '', secretAccessKey: '', forcePathStyle: '' },
+    /** Outgoing e-mail over SMTP, the outbox worker and the daily digest; see .env.example. */
+    mail: {
+      smtpHost: '', smtpPort: '', smtpSecure: '', smtpUser: '', smtpPass: '', from: '',
+      /** REST API of the local fake SMTP server, set only when it is in use (caught-mail page). */
+      fakeApiUrl: '',
+      workerIntervalMs: '', retryBaseMs: '', retryCapMs: '', digestHour: '', inviteTtlHours: '',
+    },
+    /** The address people open Jogwise at, for links in e-mails (empty = http://localhost:PORT). */
+    siteUrl: '',
     session: {
       password: '',
       maxAge: 60 * 60 * 12,

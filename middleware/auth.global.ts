@@ -7,6 +7,8 @@ export default defineNuxtRouteMiddleware(async (to) => {
     if (loggedIn.value && !to.query.reauth) return navigateTo('/')
     return
   }
+  // An invite link is opened by someone who has no sign-in yet.
+  if (to.path.startsWith('/join/')) return
   if (!loggedIn.value) return navigateTo({ path: '/login', query: to.fullPath !== '/' ? { next: to.fullPath } : undefined })
   const need = to.meta.roles as string[] | undefined
   const { user } = useUserSession()

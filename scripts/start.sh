@@ -16,6 +16,13 @@ bash scripts/db.sh start mariadb 3417
 export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=3417 NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=jogwise
 node --import tsx scripts/migrate.ts
 
+# The fake SMTP server catches every mail; the owner reads them on Crew → Caught mail.
+MAIL_SMTP_PORT=3425 MAIL_WEB_PORT=3426
+bash scripts/maildev.sh start maildev $MAIL_SMTP_PORT $MAIL_WEB_PORT
+export NUXT_MAIL_SMTP_HOST=127.0.0.1 NUXT_MAIL_SMTP_PORT=$MAIL_SMTP_PORT NUXT_MAIL_SMTP_SECURE=false \
+  NUXT_MAIL_FROM='Jogwise <jogwise@demo.jogwise.test>' NUXT_MAIL_FAKE_API_URL=http://127.0.0.1:$MAIL_WEB_PORT \
+  NUXT_SITE_URL="http://localhost:$PORT"
+
 rebuilt=0
 if build_is_stale "$ROOT/.output"; then
   log "building the app (about a minute)"
@@ -44,8 +51,12 @@ cat <<TXT
     operator  operator@demo.jogwise.test
     trainee   trainee@demo.jogwise.test
 
-  Started in the background: MariaDB on 127.0.0.1:3417 (data in .data/mariadb) and the app
-  server (log in .data/server.log). Stop both with: npm run stop
+  Mail is caught by a local fake SMTP server (nothing leaves this computer); the owner reads it
+  at http://localhost:$PORT/crew/mail
+
+  Started in the background: MariaDB on 127.0.0.1:3417 (data in .data/mariadb), the fake mail
+  server on 127.0.0.1:$MAIL_SMTP_PORT (mail in .data/maildev) and the app server (log in
+  .data/server.log). Stop them all with: npm run stop
 
   Jogwise supplements, and never replaces, the machine maker's manual, local codes and
   competent practice.

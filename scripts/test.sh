@@ -19,6 +19,7 @@ ensure_node_modules
 started_db=0
 cleanup() {
   stop_pidfile "$SERVER_PID" "the test app server"
+  bash scripts/maildev.sh stop maildev-test
   [ "$started_db" = 1 ] && [ -z "${JOGWISE_KEEP_DB:-}" ] && bash scripts/db.sh stop mariadb-test
   return 0
 }
@@ -40,6 +41,15 @@ if build_is_stale "$OUT_DIR"; then
   JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/test-build.log" 2>&1 || { tail -40 "$DATA_DIR/test-build.log"; die "build failed"; }
 fi
 stop_pidfile "$SERVER_PID" "a leftover test app server"
+# The suite's own fake SMTP server, emptied each run; the tests read what it caught through its
+# REST API (JOGWISE_MAIL_API_URL). A short worker interval and retry waits keep the tests quick.
+bash scripts/maildev.sh stop maildev-test
+bash scripts/maildev.sh start maildev-test 3427 3428 fresh
+export NUXT_MAIL_SMTP_HOST=127.0.0.1 NUXT_MAIL_SMTP_PORT=3427 NUXT_MAIL_SMTP_SECURE=false \
+  NUXT_MAIL_FROM='Jogwise <jogwise@test.jogwise.test>' NUXT_MAIL_FAKE_API_URL=http://127.0.0.1:3428 \
+  NUXT_MAIL_WORKER_INTERVAL_MS=500 NUXT_MAIL_RETRY_BASE_MS=500 NUXT_MAIL_RETRY_CAP_MS=3000 \
+  NUXT_SITE_URL="$JOGWISE_BASE_URL"
+export JOGWISE_MAIL_API_URL=http://127.0.0.1:3428
 # The API tests start a second server from the same build (crash and restart checks).
 export NUXT_SESSION_PASSWORD="test-session-secret-0123456789abcdef" JOGWISE_SERVER_ENTRY="$OUT_DIR/server/index.mjs"
 NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" \

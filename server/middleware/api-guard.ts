@@ -1,6 +1,7 @@
 // Rules for the whole /api prefix: a size limit on bodies and a session on every route except
 // the few that must answer before sign-in.
-const OPEN_ROUTES = new Set(['/api/auth/login', '/api/health'])
+// An invite link is opened signed out: its preview and acceptance carry their own one-time token.
+const OPEN_ROUTES = new Set(['/api/auth/login', '/api/health', '/api/invites/preview', '/api/invites/accept'])
 const MAX_BODY_BYTES = 2 * 1024 * 1024
 // Photos have their own 10 MB rule in the route; this only stops bodies far beyond it early.
 const MAX_UPLOAD_BODY_BYTES = 11 * 1024 * 1024

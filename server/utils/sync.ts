@@ -143,6 +143,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
         at: new Date(e.at), payload: payloadOf(e),
       })))
       await refoldRuns(tx as unknown as DB, user.shopId, touched)
+      // Owner alerts for overrides stored by this batch, in the same transaction (mail outbox).
+      await enqueueOverrideAlerts(tx, user, toInsert)
     })
   }
 

@@ -1,0 +1,45 @@
+import { InviteCreateSchema } from '#shared/schemas/invite'
+import { ROLE_LABELS } from '#shared/types/roles'
+
+// The owner invites someone by e-mail: the invite row and its mail are written together.
+export default defineEventHandler(async (event) => {
+  const owner = await requireRole(event, 'owner')
+  const body = await readValid(event, InviteCreateSchema)
+  const db = useDB()
+  const conflict = (message: string) => createError({ statusCode: 409, statusMessage: 'Conflict', message: `email: ${message}`, data: { issues: [{ path: 'email', message }] } })
+
+  // Is the e-mail address already someone's sign-in (in any shop)?
+  const [taken] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, body.email)).limit(1)
+  if (taken) throw conflict('Someone already signs in with that e-mail address.')
+  // A pending invite of this shop for the same address
+  const [pending] = await db.select({ id: tables.invites.id }).from(tables.invites).where(and(
+    eq(tables.invites.shopId, owner.shopId), eq(tables.invites.email, body.email),
+    isNull(tables.invites.acceptedAt), isNull(tables.invites.revokedAt), gt(tables.invites.expiresAt, new Date()),
+  )).limit(1)
+  if (pending) throw conflict('That address already has a pending invite. Withdraw it first to send a new one.')
+
+  const { token, hash } = newInviteToken()
+  const expiresAt = new Date(Date.now() + mailSettings().inviteTtlHours * 3600_000)
+  // The shop's name, for the mail
+  const [shop] = await db.select({ name: tables.shops.name }).from(tables.shops).where(eq(tables.shops.id, owner.shopId)).limit(1)
+  const link = `${siteUrl()}/join/${token}`
+  const id = await db.transaction(async (tx) => {
+    const [{ id }] = await tx.insert(tables.invites).values({
+      shopId: owner.shopId, email: body.email, role: body.role, tokenHash: hash, invitedBy: owner.id, expiresAt,
+    }).$returningId() as [{ id: number }]
+    await enqueueMail(tx, {
+      shopId: owner.shopId, kind: 'invite', dedupeKey: `invite:${id}`, to: body.email,
+      subject: `${owner.name} invites you to ${shop?.name ?? 'a shop'} on Jogwise`,
+      text: [
+        `${owner.name} invites you to join ${shop?.name ?? 'their shop'} on Jogwise as ${ROLE_LABELS[body.role].toLowerCase()}.`,
+        `Open this link to choose your name and password:\n${link}`,
+        `The link works once and until ${expiresAt.toISOString().replace('T', ' ').slice(0, 16)} UTC.`,
+        'If you did not expect this, ignore this e-mail.',
+      ].join('\n\n'),
+    })
+    return id
+  })
+  await recordAudit(owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
+  setResponseStatus(event, 201)
+  return { id, email: body.email, role: body.role, status: 'pending' as const, expiresAt: expiresAt.toISOString() }
+})

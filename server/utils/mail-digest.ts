@@ -1,0 +1,109 @@
+import type { DigestDueItem as DueItem } from './mail-due-fallback'
+
+// The owner's daily digest: the last 24 hours' skipped checks and out-of-range readings from
+// the Ledger, and what maintenance is due or overdue. One mail per active owner, shop and day;
+// the dedupe key makes a second enqueue the same day a no-op.
+
+/** The server's calendar day as YYYY-MM-DD (the digest hour is server time too). */
+export function localDay(d: Date): string {
+  const p = (n: number) => String(n).padStart(2, '0')
+  return `${d.getFullYear()}-${p(d.getMonth() + 1)}-${p(d.getDate())}`
+}
+
+const when = (d: Date) => `${localDay(d)} ${String(d.getHours()).padStart(2, '0')}:${String(d.getMinutes()).padStart(2, '0')}`
+
+interface DigestLine { at: Date, kind: string, runId: string, machine: string, procedure: string, step: string, person: string, detail: Record<string, unknown> }
+
+function describe(detail: Record<string, unknown>): string {
+  const parts: string[] = []
+  const value = detail.value ?? detail.reading
+  if (value !== undefined && value !== null) parts.push(`reading ${value}${detail.unit ? ` ${detail.unit}` : ''}`)
+  if (detail.min !== undefined || detail.max !== undefined) parts.push(`allowed ${detail.min ?? '…'} to ${detail.max ?? '…'}${detail.unit ? ` ${detail.unit}` : ''}`)
+  if (typeof detail.reason === 'string' && detail.reason) parts.push(`reason: "${detail.reason}"`)
+  return parts.join(', ')
+}
+
+/** What goes into one shop's digest for the 24 hours before `now`. */
+export async function digestContent(shopId: number, now: Date) {
+  const db = useDB()
+  const since = new Date(now.getTime() - 24 * 3600_000)
+  // The Ledger's skipped checks and out-of-range readings of the last day, with the names of
+  // the machine, person, procedure version and step they concern
+  const rows = await db.select({
+    at: tables.ledgerEntries.at, kind: tables.ledgerEntries.kind, runId: tables.ledgerEntries.runId,
+    stepKey: tables.ledgerEntries.stepKey, detail: tables.ledgerEntries.detail,
+    machine: tables.machines.name, person: tables.users.name,
+    procedure: tables.procedureVersions.title, step: tables.procedureSteps.title,
+  }).from(tables.ledgerEntries)
+    .innerJoin(tables.machines, eq(tables.machines.id, tables.ledgerEntries.machineId))
+    .innerJoin(tables.users, eq(tables.users.id, tables.ledgerEntries.actorId))
+    .leftJoin(tables.runs, eq(tables.runs.id, tables.ledgerEntries.runId))
+    .leftJoin(tables.procedureVersions, eq(tables.procedureVersions.id, tables.runs.procedureVersionId))
+    .leftJoin(tables.procedureSteps, and(eq(tables.procedureSteps.versionId, tables.runs.procedureVersionId), eq(tables.procedureSteps.key, tables.ledgerEntries.stepKey)))
+    .where(and(
+      eq(tables.ledgerEntries.shopId, shopId),
+      inArray(tables.ledgerEntries.kind, ['skipped-check', 'out-of-range']),
+      gte(tables.ledgerEntries.at, since), lte(tables.ledgerEntries.at, now),
+    ))
+    .orderBy(asc(tables.ledgerEntries.at))
+  const lines: DigestLine[] = rows.map(r => ({
+    at: r.at, kind: r.kind, runId: r.runId, machine: r.machine, person: r.person,
+    procedure: r.procedure ?? 'procedure', step: r.step ?? r.stepKey ?? 'step', detail: r.detail ?? {},
+  }))
+  const due: DueItem[] = (await dueItemsForDigest(shopId, now)).filter(d => d.status !== 'ok')
+  return {
+    since,
+    skipped: lines.filter(l => l.kind === 'skipped-check'),
+    outOfRange: lines.filter(l => l.kind === 'out-of-range'),
+    due: due.sort((a, b) => Number(b.status === 'overdue') - Number(a.status === 'overdue')),
+  }
+}
+
+export function digestText(shopName: string, now: Date, c: Awaited<ReturnType<typeof digestContent>>): string {
+  const site = siteUrl()
+  const entry = (l: DigestLine) => {
+    const extra = describe(l.detail)
+    return `- ${when(l.at)} · ${l.machine} · ${l.procedure} · "${l.step}" · ${l.person}${extra ? ` · ${extra}` : ''}\n  ${site}/runs/${l.runId}/record`
+  }
+  const section = (title: string, items: string[]) => `${title} (${items.length})\n${items.length ? items.join('\n') : '- none'}`
+  return [
+    `Daily digest for ${shopName}, ${localDay(now)}: the 24 hours from ${when(c.since)} to ${when(now)}.`,
+    section('Skipped checks', c.skipped.map(entry)),
+    section('Out-of-range readings', c.outOfRange.map(entry)),
+    section('Maintenance due and overdue', c.due.map(d => `- ${d.status === 'overdue' ? 'OVERDUE' : 'DUE'} · ${d.machineName} · ${d.procedureTitle} · ${d.reason}`)),
+    `The whole record is in the Ledger: ${site}/ledger`,
+    'Jogwise supplements, and never replaces, the machine maker\'s manual, local codes and competent practice.',
+  ].join('\n\n')
+}
+
+/** Queues today's digest of one shop to each active owner; returns how many mails were new. */
+export async function enqueueShopDigest(shopId: number, now = new Date()): Promise<{ day: string, queued: number, owners: number }> {
+  const db = useDB()
+  const day = localDay(now)
+  // The shop's name
+  const [shop] = await db.select({ name: tables.shops.name }).from(tables.shops).where(eq(tables.shops.id, shopId)).limit(1)
+  if (!shop) return { day, queued: 0, owners: 0 }
+  const owners = await activeOwners(db, shopId)
+  if (!owners.length) return { day, queued: 0, owners: 0 }
+  const content = await digestContent(shopId, now)
+  const text = digestText(shop.name, now, content)
+  const subject = `Jogwise daily digest ${day}: ${content.skipped.length} skipped, ${content.outOfRange.length} out of range, ${content.due.length} due`
+  let queued = 0
+  for (const owner of owners) {
+    const added = await enqueueMail(db, { shopId, kind: 'digest', dedupeKey: `digest:${shopId}:${day}:${owner.id}`, to: owner.email, subject, text })
+    if (added) queued++
+  }
+  return { day, queued, owners: owners.length }
+}
+
+let doneForDay = ''
+
+/** Called by the outbox worker: after the digest hour, each shop's digest once per day. */
+export async function enqueueDigestsWhenDue(now = new Date()) {
+  const day = localDay(now)
+  if (doneForDay === day || now.getHours() < mailSettings().digestHour) return
+  // Every shop
+  const shops = await useDB().select({ id: tables.shops.id }).from(tables.shops)
+  for (const shop of shops) await enqueueShopDigest(shop.id, now)
+  doneForDay = day
+}
