@@ -56,6 +56,16 @@ const ROUTES: Record<string, Row> = {
   // An empty photo to a fresh id: allowed roles get 400 and nothing is stored.
   'PUT /api/uploads/[id]': { allowed: everyone, probe: c => ({ path: `/api/uploads/${crypto.randomUUID()}?runId=${c.runId}` }), okStatus: 400, crossShop: true },
   'GET /api/uploads/[id]': { allowed: everyone, probe: () => ({ path: `/api/uploads/${crypto.randomUUID()}` }), okStatus: 404 },
+  'GET /api/invites': { allowed: ['owner'], probe: () => ({ path: '/api/invites' }), okStatus: 200 },
+  'POST /api/invites': { allowed: ['owner'], probe: () => ({ path: '/api/invites', body: {} }), okStatus: 400 },
+  'POST /api/invites/[id]/revoke': { allowed: ['owner'], probe: () => ({ path: '/api/invites/999999999/revoke' }), okStatus: 404 },
+  // Opened from an invite link, signed out: the token is the credential; none here → 400.
+  'GET /api/invites/preview': { allowed: ['anyone'], probe: () => ({ path: '/api/invites/preview' }), okStatus: 400 },
+  'POST /api/invites/accept': { allowed: ['anyone'], probe: () => ({ path: '/api/invites/accept', body: {} }), okStatus: 400 },
+  'GET /api/mail/outbox': { allowed: ['owner'], probe: () => ({ path: '/api/mail/outbox' }), okStatus: 200 },
+  // scripts/test.sh runs the fake mail server, so the caught-mail list is on.
+  'GET /api/mail/caught': { allowed: ['owner'], probe: () => ({ path: '/api/mail/caught' }), okStatus: 200 },
+  'POST /api/mail/digest': { allowed: ['owner'], probe: () => ({ path: '/api/mail/digest' }), okStatus: 200 },
   'POST /api/runs/[id]/signoff-proof': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/signoff-proof`, body: {} }), okStatus: 400, crossShop: true },
 }
 

@@ -3,6 +3,5 @@
 export default defineEventHandler(async (event) => {
   const owner = await requireRole(event, 'owner')
   const result = await enqueueShopDigest(owner.shopId)
-  setResponseStatus(event, result.queued ? 201 : 200)
   return { ...result, message: result.queued ? 'Today\'s digest is on its way.' : 'Today\'s digest was already queued.' }
 })
