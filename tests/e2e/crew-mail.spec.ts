@@ -115,3 +115,16 @@ test('a trainer\'s hold override reaches the owner by e-mail with the reason', a
   await owner.screenshot({ path: 'test-results/crew-mail-override.png', fullPage: true })
   await ownerContext.close()
 })
+
+test('a trainer sees the crew read-only, without invites or mail', async ({ page }) => {
+  await signIn(page, 'trainer')
+  await page.goto('/crew')
+  await expect(page.getByText('Only the owner changes people and roles.')).toBeVisible()
+  await expect(page.getByRole('listitem').filter({ hasText: 'Maren Oakes' })).toBeVisible()
+  await expect(page.getByRole('form', { name: 'Invite by e-mail' })).toHaveCount(0)
+  await expect(page.getByRole('combobox')).toHaveCount(0)
+  await expect(page.getByRole('link', { name: /mail/i })).toHaveCount(0)
+  // The owner's mail page sends anyone else back to the Floor.
+  await page.goto('/crew/mail')
+  await expect(page.getByRole('heading', { name: 'Floor' })).toBeVisible()
+})
