@@ -3,6 +3,7 @@ import type { RunEvent } from '#shared/runs'
 import type { ServerEvent, SyncRejection, SyncRequest, SyncResponse } from '#shared/schemas/sync'
 import { runModeFor } from '#shared/types/roles'
 import type { ShopUser } from './authz'
+import type { FoldedRun } from './ledger-write'
 
 // The server side of offline sync. Each event is checked on its own (one bad event never sinks
 // the batch), the good ones are stored in one transaction, ids make replays harmless, and the
@@ -201,12 +202,15 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
   const byRun = new Map<string, StoredRow[]>()
   for (const row of rows) (byRun.get(row.runId) ?? byRun.set(row.runId, []).get(row.runId)!).push(row)
 
+  const folded: FoldedRun[] = []
   for (const run of runs) {
     const steps = versions.get(run.procedureVersionId)?.steps ?? []
     const stored = byRun.get(run.id) ?? []
     // No roles passed: overrides and sign-offs were authorized when they were merged, and a
     // later role change must not turn yesterday's valid override into a flagged one.
     const state = foldRun(steps, stored.map(toRunEvent))
+    const procedureId = versions.get(run.procedureVersionId)?.procedureId
+    if (procedureId !== undefined) folded.push({ run, procedureId, state, steps })
     const flagById = new Map(state.flagged.map(f => [f.event.id, f.code]))
     // Only rows whose flag changed are written.
     const changes = new Map<string | null, string[]>()
@@ -225,4 +229,6 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
       finishedAt: state.finished ? new Date(state.finished.at) : state.abandoned ? new Date(state.abandoned.at) : null,
     }).where(eq(tables.runs.id, run.id))
   }
+  // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
+  await writeRunLedger(db, shopId, folded)
 }

@@ -1,3 +1,4 @@
 export * from './events'
 export * from './fold'
 export * from './next-action'
+export * from './ledger'

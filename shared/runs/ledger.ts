@@ -1,0 +1,144 @@
+import { describeRange, type ProcedureStep } from '../procedures/schema'
+import type { EventRef, RunState } from './fold'
+
+// What a run contributes to the Ledger, read off the fold's state. Pure, so the sync merge can
+// make the ledger_entries table match the state after every batch (an undo removes an entry)
+// and the rules can be tested without a database.
+
+export const LEDGER_ENTRY_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check'] as const
+export type LedgerEntryKind = typeof LEDGER_ENTRY_KINDS[number]
+
+export interface LedgerEntryDraft {
+  /** The event the entry is about; with kind, the entry's identity. */
+  eventId: string
+  kind: LedgerEntryKind
+  actorId: number
+  stepKey: string | null
+  at: string
+  detail: Record<string, unknown>
+}
+
+// The fold's codes for an event that acted past a hold that was not cleared yet.
+const PAST_HOLD_CODES = new Set(['passed-unacknowledged-hold', 'passed-unsigned-hold'])
+
+/**
+ * The Ledger entries of one run:
+ * - override: every hold override the fold accepted (undo can never remove one);
+ * - late-past-hold: every event the fold refused because it acted past an open hold (typically
+ *   made offline on another tablet and synced after the hold's state was known);
+ * - out-of-range: every reading still in effect that lies outside the check's allowed range;
+ * - skipped-check: a check step with no reading in effect while work was recorded on a later
+ *   step (the fold only blocks steps behind holds, so a person can move past a check without
+ *   measuring). The entry hangs on the earliest such later action; checks passed by the same
+ *   action share one entry (detail.steps). Filling in the reading later removes it. Checks
+ *   never reached (an abandoned run) are not skipped: nothing was done past them.
+ */
+export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]): LedgerEntryDraft[] {
+  const out: LedgerEntryDraft[] = []
+  const stepByKey = new Map(steps.map(s => [s.key, s]))
+  const titleOf = (key: string | null) => (key ? stepByKey.get(key)?.title ?? key : null)
+
+  for (const o of state.overrides) {
+    const step = stepByKey.get(o.stepKey)
+    out.push({
+      eventId: o.eventId, kind: 'override', actorId: o.actorId, stepKey: o.stepKey, at: o.at,
+      detail: { stepTitle: titleOf(o.stepKey), reason: o.reason, signalWord: step?.kind === 'hold' ? step.signalWord : null },
+    })
+  }
+
+  for (const f of state.flagged) {
+    if (!PAST_HOLD_CODES.has(f.code)) continue
+    const stepKey = 'stepKey' in f.event && typeof f.event.stepKey === 'string' ? f.event.stepKey : null
+    out.push({
+      eventId: f.event.id, kind: 'late-past-hold', actorId: f.event.actorId, stepKey, at: f.event.at,
+      detail: { stepTitle: titleOf(stepKey), eventType: f.event.type, code: f.code, reason: f.message },
+    })
+  }
+
+  for (const v of state.values) {
+    if (v.outOfRange === null) continue
+    const step = stepByKey.get(v.stepKey)
+    out.push({
+      eventId: v.eventId, kind: 'out-of-range', actorId: v.actorId, stepKey: v.stepKey, at: v.at,
+      detail: {
+        stepTitle: titleOf(v.stepKey), value: v.value, unit: v.unit, side: v.outOfRange,
+        range: step?.kind === 'check' ? describeRange(step) : null, reason: v.reason,
+      },
+    })
+  }
+
+  // Skipped checks: walk the steps; an open check is "passed" by the earliest action on any later step.
+  const skippedBy = new Map<string, { ref: EventRef, stepKey: string, action: string, steps: { stepKey: string, stepTitle: string }[] }>()
+  state.steps.forEach((s, i) => {
+    if (s.kind !== 'check' || s.value !== null || s.complete) return
+    let first: { ref: EventRef, stepKey: string, action: string } | null = null
+    for (const later of state.steps.slice(i + 1)) {
+      for (const a of actionsOn(later)) if (!first || earlier(a.ref, first.ref)) first = { ...a, stepKey: later.key }
+    }
+    if (!first) return
+    const entry = skippedBy.get(first.ref.eventId) ?? { ...first, steps: [] }
+    entry.steps.push({ stepKey: s.key, stepTitle: s.title })
+    skippedBy.set(first.ref.eventId, entry)
+  })
+  for (const [eventId, e] of skippedBy) {
+    out.push({
+      eventId, kind: 'skipped-check', actorId: e.ref.actorId, stepKey: e.steps[0]!.stepKey, at: e.ref.at,
+      detail: {
+        stepTitle: e.steps[0]!.stepTitle, steps: e.steps, passedBy: { stepKey: e.stepKey, stepTitle: titleOf(e.stepKey), action: e.action },
+        reason: `No reading recorded for ${e.steps.map(s => `"${s.stepTitle}"`).join(', ')} before work on "${titleOf(e.stepKey)}".`,
+      },
+    })
+  }
+  return out.sort((a, b) => (a.at < b.at ? -1 : a.at > b.at ? 1 : a.eventId < b.eventId ? -1 : a.eventId > b.eventId ? 1 : a.kind < b.kind ? -1 : 1))
+}
+
+function actionsOn(s: RunState['steps'][number]): { ref: EventRef, action: string }[] {
+  const out: { ref: EventRef, action: string }[] = []
+  if (s.done) out.push({ ref: s.done, action: 'step.done' })
+  if (s.acknowledged) out.push({ ref: s.acknowledged, action: 'hold.acknowledged' })
+  if (s.override) out.push({ ref: s.override, action: 'hold.overridden' })
+  if (s.signoff) out.push({ ref: s.signoff, action: 'signoff.given' })
+  for (const r of s.readings) out.push({ ref: r, action: 'value.recorded' })
+  for (const p of s.photos) out.push({ ref: p, action: 'photo.attached' })
+  for (const p of s.plans) out.push({ ref: p, action: 'plan.attached' })
+  return out
+}
+
+// Fold order: time, then id.
+function earlier(a: EventRef, b: EventRef) {
+  const ta = Date.parse(a.at)
+  const tb = Date.parse(b.at)
+  return ta !== tb ? ta < tb : a.eventId < b.eventId
+}
+
+// Units a check may use for spindle time, in hours.
+const SPINDLE_HOUR_UNITS = new Set(['h', 'hr', 'hrs', 'hour', 'hours', 'spindle h', 'spindle hours'])
+
+/**
+ * Spindle minutes a run recorded:
+ * - for each planner step, the last plan still attached (a re-plan replaces the earlier one,
+ *   as for the spoilboard facing) counts its estimated machine time, once that step is done:
+ *   only then was the program handed to the machine (`planMinutes` looks up the stored plan;
+ *   null when it is unknown, which counts as nothing);
+ * - plus every check reading in effect whose unit is hours and whose label or title names the
+ *   spindle (e.g. "Spindle hours run", unit h), for work cut outside the planner.
+ */
+export function spindleMinutesOf(state: RunState, steps: readonly ProcedureStep[], planMinutes: (planId: string) => number | null): number {
+  let minutes = 0
+  for (const s of state.steps) {
+    if (s.kind !== 'planner' || !s.done) continue
+    const planId = s.plans.at(-1)?.planId
+    const m = planId ? planMinutes(planId) : null
+    if (m !== null && Number.isFinite(m) && m > 0) minutes += m
+  }
+  for (const step of steps) {
+    if (step.kind !== 'check' || !isSpindleHourCheck(step)) continue
+    const v = state.steps.find(s => s.key === step.key)?.value
+    if (v && Number.isFinite(v.value) && v.value > 0) minutes += v.value * 60
+  }
+  return Math.round(minutes * 1000) / 1000
+}
+
+export function isSpindleHourCheck(step: ProcedureStep): boolean {
+  return step.kind === 'check' && SPINDLE_HOUR_UNITS.has(step.unit.trim().toLowerCase()) && /spindle/i.test(`${step.label} ${step.title}`)
+}
