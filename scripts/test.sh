@@ -11,6 +11,8 @@ SERVER_PID="$DATA_DIR/test-server-$TEST_PORT.pid"
 export JOGWISE_DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}"
 DB_NAME="${JOGWISE_TEST_DB:-jogwise_test}"
 export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=$DB_PORT NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=$DB_NAME
+# The backup and restore test creates its scratch database as MariaDB root, on this socket.
+export JOGWISE_TEST_DB_SOCKET="$DATA_DIR/mariadb-test/mariadb.sock"
 export JOGWISE_BASE_URL="http://127.0.0.1:$TEST_PORT"
 
 ensure_apt_packages with-browser
