@@ -29,6 +29,13 @@ export const DEMO_MACHINES = [
   },
 ] as const
 
+// Maintenance intervals of the demo shop (machine: index into DEMO_MACHINES, null = every machine).
+export const DEMO_INTERVALS = [
+  { slug: 'spoilboard-resurfacing', machine: 0, everyDays: 30, everySpindleHours: 80 },
+  { slug: 'spindle-tram-check', machine: null, everyDays: 90, everySpindleHours: null },
+  { slug: 'emergency-stop-test', machine: null, everyDays: 7, everySpindleHours: null },
+] as const
+
 /** Seeds the demo shop once: only when the database has no shop at all. */
 export async function seedDemoShopIfEmpty(password: string) {
   const db = useDB()
@@ -47,8 +54,23 @@ export async function seedDemoShopIfEmpty(password: string) {
       }).$returningId() as [{ id: number }]
       if (p.role === 'owner') ownerId = id
     }
-    for (const m of DEMO_MACHINES) await tx.insert(tables.machines).values({ ...m, shopId })
+    const machineIds: number[] = []
+    for (const m of DEMO_MACHINES) {
+      const [{ id }] = await tx.insert(tables.machines).values({ ...m, shopId }).$returningId() as [{ id: number }]
+      machineIds.push(id)
+    }
     await installStarterLibrary(tx, shopId, ownerId)
+    // A few maintenance intervals, so the due list and the Floor tiles show something due.
+    const procs = await tx.select({ id: tables.procedures.id, slug: tables.procedures.slug }).from(tables.procedures).where(eq(tables.procedures.shopId, shopId))
+    const bySlug = new Map(procs.map(p => [p.slug, p.id]))
+    for (const i of DEMO_INTERVALS) {
+      const procedureId = bySlug.get(i.slug)
+      if (!procedureId) continue
+      await tx.insert(tables.maintenanceIntervals).values({
+        shopId, procedureId, machineId: i.machine === null ? null : machineIds[i.machine] ?? null,
+        everyDays: i.everyDays, everySpindleHours: i.everySpindleHours,
+      })
+    }
   })
   return true
 }

@@ -63,6 +63,9 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
       detail: {
         stepTitle: titleOf(v.stepKey), value: v.value, unit: v.unit, side: v.outOfRange,
         range: step?.kind === 'check' ? describeRange(step) : null, reason: v.reason,
+        // The bounds themselves too, for readers that format them their own way (the digest).
+        ...(step?.kind === 'check' && step.min !== undefined ? { min: step.min } : {}),
+        ...(step?.kind === 'check' && step.max !== undefined ? { max: step.max } : {}),
       },
     })
   }

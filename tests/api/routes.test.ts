@@ -67,6 +67,15 @@ const ROUTES: Record<string, Row> = {
   'GET /api/mail/caught': { allowed: ['owner'], probe: () => ({ path: '/api/mail/caught' }), okStatus: 200 },
   'POST /api/mail/digest': { allowed: ['owner'], probe: () => ({ path: '/api/mail/digest' }), okStatus: 200 },
   'POST /api/runs/[id]/signoff-proof': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/signoff-proof`, body: {} }), okStatus: 400, crossShop: true },
+  'GET /api/ledger': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/ledger' }), okStatus: 200 },
+  // A bad filter, so an allowed role gets a JSON 400 rather than a CSV download.
+  'GET /api/ledger/export.csv': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/ledger/export.csv?kind=nope' }), okStatus: 400 },
+  'GET /api/ledger/runs': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/ledger/runs' }), okStatus: 200 },
+  'GET /api/due': { allowed: everyone, probe: () => ({ path: '/api/due' }), okStatus: 200 },
+  'GET /api/maintenance-intervals': { allowed: everyone, probe: () => ({ path: '/api/maintenance-intervals' }), okStatus: 200 },
+  'POST /api/maintenance-intervals': { allowed: ['owner'], probe: () => ({ path: '/api/maintenance-intervals', body: {} }), okStatus: 400 },
+  'PATCH /api/maintenance-intervals/[id]': { allowed: ['owner'], probe: () => ({ path: '/api/maintenance-intervals/999999999', body: {} }), okStatus: 404 },
+  'DELETE /api/maintenance-intervals/[id]': { allowed: ['owner'], probe: () => ({ path: '/api/maintenance-intervals/999999999' }), okStatus: 404 },
 }
 
 function discoverRoutes(dir = join(process.cwd(), 'server/api')): string[] {

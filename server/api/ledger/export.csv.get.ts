@@ -1,0 +1,27 @@
+import { Readable } from 'node:stream'
+import { stringify } from 'csv-stringify'
+import { LedgerFilterSchema } from '#shared/schemas/ledger'
+
+// The whole filtered Ledger as CSV (csv-stringify), streamed: rows are read in keyset batches
+// and written as the client takes them, so a shop with 200,000 entries never sits in memory.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'owner', 'trainer')
+  const filter = queryValid(event, LedgerFilterSchema)
+  const day = new Date().toISOString().slice(0, 10)
+  setResponseHeaders(event, {
+    'content-type': 'text/csv; charset=utf-8',
+    'content-disposition': `attachment; filename="jogwise-ledger-${day}.csv"`,
+    'cache-control': 'no-store',
+  })
+  async function* records() {
+    for await (const row of ledgerAll(user.shopId, filter)) yield ledgerCsvRecord(row)
+  }
+  const csv = stringify({ header: true, columns: LEDGER_CSV_COLUMNS.map(c => c.header) })
+  const source = Readable.from(records())
+  source.on('error', (err) => {
+    // Headers are gone already; end the download broken rather than pretend it is complete.
+    console.error('[jogwise] ledger export failed:', err)
+    csv.destroy(err)
+  })
+  return sendStream(event, source.pipe(csv))
+})

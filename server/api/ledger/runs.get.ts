@@ -1,0 +1,52 @@
+import { LedgerRunsQuerySchema } from '#shared/schemas/ledger'
+
+// The Ledger's run list: every run of the shop (newest first) with who, machine, procedure and
+// how many overrides, photos and sign-offs it holds; each links to its record (timeline).
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'owner', 'trainer')
+  const q = queryValid(event, LedgerRunsQuerySchema)
+  const r = tables.runs
+  const where = [eq(r.shopId, user.shopId)]
+  if (q.status) where.push(eq(r.status, q.status))
+  if (q.actorId) where.push(eq(r.startedBy, q.actorId))
+  if (q.machineId) where.push(eq(r.machineId, q.machineId))
+  if (q.procedureId) where.push(eq(tables.procedureVersions.procedureId, q.procedureId))
+  if (q.from) where.push(gte(r.startedAt, q.from))
+  if (q.to) where.push(lte(r.startedAt, q.to))
+  const db = useDB()
+  const [rows, [total]] = await Promise.all([
+    // The page of runs with names
+    db.select({
+      id: r.id, status: r.status, mode: r.mode, startedAt: r.startedAt, finishedAt: r.finishedAt, spindleMinutes: r.spindleMinutes,
+      startedBy: r.startedBy, startedByName: tables.users.name, machineId: r.machineId, machineName: tables.machines.name,
+      procedureId: tables.procedureVersions.procedureId, procedureTitle: tables.procedureVersions.title, version: tables.procedureVersions.version,
+    }).from(r)
+      .innerJoin(tables.users, eq(tables.users.id, r.startedBy))
+      .innerJoin(tables.machines, eq(tables.machines.id, r.machineId))
+      .innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, r.procedureVersionId))
+      .where(and(...where)).orderBy(desc(r.startedAt), desc(r.id)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
+    // How many runs match
+    db.select({ n: count() }).from(r).innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, r.procedureVersionId)).where(and(...where)),
+  ])
+  const counts = new Map<string, { overrides: number, photos: number, signoffs: number }>()
+  if (rows.length) {
+    const e = tables.runEvents
+    // Events that took effect (no flag), counted by kind per run of the page
+    const tallies = await db.select({
+      runId: e.runId,
+      overrides: sql<string>`sum(${e.type} = 'hold.overridden')`,
+      photos: sql<string>`sum(${e.type} = 'photo.attached')`,
+      signoffs: sql<string>`sum(${e.type} = 'signoff.given')`,
+    }).from(e)
+      .where(and(eq(e.shopId, user.shopId), inArray(e.runId, rows.map(x => x.id)), isNull(e.flag), inArray(e.type, ['hold.overridden', 'photo.attached', 'signoff.given'])))
+      .groupBy(e.runId)
+    for (const t of tallies) counts.set(t.runId, { overrides: Number(t.overrides), photos: Number(t.photos), signoffs: Number(t.signoffs) })
+  }
+  return {
+    rows: rows.map(x => ({
+      ...x, startedAt: x.startedAt.toISOString(), finishedAt: x.finishedAt?.toISOString() ?? null,
+      ...(counts.get(x.id) ?? { overrides: 0, photos: 0, signoffs: 0 }),
+    })),
+    total: total?.n ?? 0, page: q.page, pageSize: q.pageSize,
+  }
+})

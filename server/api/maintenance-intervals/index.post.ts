@@ -1,0 +1,12 @@
+import { IntervalCreateSchema } from '#shared/schemas/maintenance'
+
+export default defineEventHandler(async (event) => {
+  const owner = await requireRole(event, 'owner')
+  const body = await readValid(event, IntervalCreateSchema)
+  await checkIntervalTargets(owner, body)
+  // Add the interval to the owner's shop
+  const [row] = await useDB().insert(tables.maintenanceIntervals).values({ ...body, shopId: owner.shopId }).$returningId()
+  await recordAudit(owner, 'interval.created', 'maintenance_interval', row!.id, body)
+  setResponseStatus(event, 201)
+  return findShopInterval(owner, row!.id)
+})
