@@ -36,3 +36,27 @@ export async function closeDB() {
   pool = undefined
   db = undefined
 }
+
+// mysql2 error codes that mean "MariaDB is not there just now" (stopped, restarting, too busy),
+// as opposed to a bad query. mysql2 also marks such connection-level errors `fatal`.
+const UNREACHABLE_CODES = new Set([
+  'ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENOTFOUND',
+  'PROTOCOL_CONNECTION_LOST', 'PROTOCOL_SEQUENCE_TIMEOUT', 'ER_CON_COUNT_ERROR',
+  'ER_SERVER_SHUTDOWN', 'ER_CONNECTION_KILLED', 'ER_QUERY_INTERRUPTED',
+])
+
+/**
+ * The mysql2 error behind an error (drizzle wraps them as the `cause`) when it says the database
+ * could not be reached, else null. The pool drops such connections itself and opens new ones
+ * once MariaDB is back, so the server recovers without a restart.
+ */
+export function databaseUnreachable(error: unknown): { code: string } | null {
+  let e: any = error
+  for (let depth = 0; e && depth < 6; depth++, e = e.cause) {
+    const code = typeof e.code === 'string' ? e.code : ''
+    if (UNREACHABLE_CODES.has(code)) return { code }
+    if (depth > 0 && e.fatal === true) return { code: code || 'FATAL' }
+    if (/Can't add new command when connection is in closed state|Pool is closed/.test(String(e.message ?? ''))) return { code: code || 'CONNECTION_CLOSED' }
+  }
+  return null
+}
