@@ -1,4 +1,4 @@
-import type { DigestDueItem as DueItem } from './mail-due-fallback'
+import type { DueItem } from './due-list'
 
 // The owner's daily digest: the last 24 hours' skipped checks and out-of-range readings from
 // the Ledger, and what maintenance is due or overdue. One mail per active owner, shop and day;
@@ -18,7 +18,9 @@ function describe(detail: Record<string, unknown>): string {
   const parts: string[] = []
   const value = detail.value ?? detail.reading
   if (value !== undefined && value !== null) parts.push(`reading ${value}${detail.unit ? ` ${detail.unit}` : ''}`)
-  if (detail.min !== undefined || detail.max !== undefined) parts.push(`allowed ${detail.min ?? '…'} to ${detail.max ?? '…'}${detail.unit ? ` ${detail.unit}` : ''}`)
+  // The Ledger writes the allowed range as text (describeRange); min/max are read too.
+  if (typeof detail.range === 'string' && detail.range) parts.push(`allowed ${detail.range}`)
+  else if (detail.min !== undefined || detail.max !== undefined) parts.push(`allowed ${detail.min ?? '…'} to ${detail.max ?? '…'}${detail.unit ? ` ${detail.unit}` : ''}`)
   if (typeof detail.reason === 'string' && detail.reason) parts.push(`reason: "${detail.reason}"`)
   return parts.join(', ')
 }
@@ -48,14 +50,16 @@ export async function digestContent(shopId: number, now: Date) {
     .orderBy(asc(tables.ledgerEntries.at))
   const lines: DigestLine[] = rows.map(r => ({
     at: r.at, kind: r.kind, runId: r.runId, machine: r.machine, person: r.person,
-    procedure: r.procedure ?? 'procedure', step: r.step ?? r.stepKey ?? 'step', detail: r.detail ?? {},
+    procedure: r.procedure ?? 'procedure', detail: r.detail ?? {},
+    step: r.step ?? (typeof r.detail?.stepTitle === 'string' ? r.detail.stepTitle : null) ?? r.stepKey ?? 'step',
   }))
-  const due: DueItem[] = (await dueItemsForDigest(shopId, now)).filter(d => d.status !== 'ok')
+  const due: DueItem[] = (await listDueItems(shopId, now)).filter(d => d.status !== 'ok')
   return {
     since,
     skipped: lines.filter(l => l.kind === 'skipped-check'),
     outOfRange: lines.filter(l => l.kind === 'out-of-range'),
-    due: due.sort((a, b) => Number(b.status === 'overdue') - Number(a.status === 'overdue')),
+    // listDueItems gives the worst first.
+    due,
   }
 }
 

@@ -96,8 +96,9 @@ describe('the daily digest', () => {
       db().query('insert into ledger_entries (shop_id, event_id, run_id, kind, actor_id, machine_id, procedure_id, step_key, at, detail) values (?,?,?,?,?,?,?,?,?,?)', [
         shop.shopId, uuidv7(), shop.runId, kind, ctx.operatorId, shop.machineId, shop.procedureId, ctx.check.key, new Date(Date.now() - agoHours * hour), JSON.stringify(detail),
       ])
-    await entry('skipped-check', 2, { reason: 'Gauge was out on loan to the bench router' })
-    await entry('out-of-range', 1, { value: 17.2, unit: 'mm', min: 17.5, max: 19, reason: 'Board thinner near the front edge' })
+    // Details in the shape the sync merge writes them (shared/runs/ledger.ts).
+    await entry('skipped-check', 2, { stepTitle: ctx.check.title, reason: 'Gauge was out on loan to the bench router' })
+    await entry('out-of-range', 1, { stepTitle: ctx.check.title, value: 17.2, unit: 'mm', side: 'below', range: '17.5 to 19 mm', reason: 'Board thinner near the front edge' })
     await entry('skipped-check', 30, { reason: 'yesterday-morning-marker' })
     await entry('override', 1, { reason: 'override-entry-marker' })
     const other = await otherShop()
