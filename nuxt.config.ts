@@ -29,6 +29,13 @@ export default defineNuxtConfig({
         { name: 'viewport', content: 'width=device-width, initial-scale=1, viewport-fit=cover' },
         { name: 'description', content: 'Machine-side procedures, safety holds and machining arithmetic for a CNC-router shop.' },
       ],
+      script: [
+        // Zod 4 probes once whether `new Function` works, to compile faster parsers; the
+        // Content-Security-Policy allows no eval, so the probe is refused and reported as a
+        // violation. Zod's own `jitless` setting skips it; it must be set before any schema is
+        // built, so it goes into zod's global config object ahead of the app's modules.
+        { innerHTML: 'globalThis.__zod_globalConfig=Object.assign(globalThis.__zod_globalConfig||{},{jitless:true})' },
+      ],
       link: [
         { rel: 'icon', type: 'image/png', href: '/icons/jogwise-192.png' },
         { rel: 'apple-touch-icon', href: '/icons/apple-touch-icon-180.png' },
@@ -57,10 +64,17 @@ export default defineNuxtConfig({
     },
     /** The address people open Jogwise at, for links in e-mails (empty = http://localhost:PORT). */
     siteUrl: '',
+    /**
+     * Set to 1 only behind a reverse proxy of your own: then its X-Forwarded-For and
+     * X-Forwarded-Proto count for sign-in throttling and the Secure cookie flag.
+     */
+    trustProxy: '',
     session: {
       password: '',
       maxAge: 60 * 60 * 12,
-      cookie: { sameSite: 'lax' },
+      // Lax, not Strict: a link from an override e-mail must open the page signed in. Secure is
+      // h3's default; server/plugins/session-cookie.ts drops it for plain-http answers only.
+      cookie: { sameSite: 'lax', httpOnly: true, secure: true },
     },
   },
   // The app shell: a client-rendered page the service worker serves for any screen opened

@@ -11,6 +11,11 @@ export async function requireShopUser(event: H3Event): Promise<ShopUser> {
   if (event.context.shopUser) return event.context.shopUser as ShopUser
   const session = await getUserSession(event)
   if (!session.user) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in first.' })
+  // A copy of a cookie from before a sign-out (session-revocation.ts)
+  if (await isSessionRevoked(session.id)) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'This sign-in has ended. Sign in again.' })
+  }
   const [row] = await useDB().select({
     id: tables.users.id, shopId: tables.users.shopId, name: tables.users.name,
     email: tables.users.email, role: tables.users.role, active: tables.users.active,

@@ -1,8 +1,7 @@
-import { readdirSync, statSync } from 'node:fs'
-import { join, relative } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { v7 as uuidv7 } from 'uuid'
 import { as, call, db, DEMO, otherShop, signIn, type DemoRole } from './client'
+import { discoverRoutes } from './discover'
 
 const MATRIX_PROCEDURE = {
   title: 'Matrix check procedure',
@@ -76,19 +75,6 @@ const ROUTES: Record<string, Row> = {
   'POST /api/maintenance-intervals': { allowed: ['owner'], probe: () => ({ path: '/api/maintenance-intervals', body: {} }), okStatus: 400 },
   'PATCH /api/maintenance-intervals/[id]': { allowed: ['owner'], probe: () => ({ path: '/api/maintenance-intervals/999999999', body: {} }), okStatus: 404 },
   'DELETE /api/maintenance-intervals/[id]': { allowed: ['owner'], probe: () => ({ path: '/api/maintenance-intervals/999999999' }), okStatus: 404 },
-}
-
-function discoverRoutes(dir = join(process.cwd(), 'server/api')): string[] {
-  const out: string[] = []
-  for (const name of readdirSync(dir)) {
-    const full = join(dir, name)
-    if (statSync(full).isDirectory()) { out.push(...discoverRoutes(full)); continue }
-    const m = name.match(/^(.*)\.(get|post|patch|put|delete)\.ts$/)
-    if (!m) continue
-    const route = relative(join(process.cwd(), 'server/api'), join(dir, m[1] === 'index' ? '' : m[1])).split('\\').join('/')
-    out.push(`${m[2].toUpperCase()} /api${route ? `/${route}` : ''}`)
-  }
-  return out.sort()
 }
 
 let ctx: Ctx

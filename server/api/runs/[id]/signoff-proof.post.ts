@@ -19,13 +19,19 @@ export default defineEventHandler(async (event) => {
   if (!signer || !['owner', 'trainer'].includes(signer.role)) {
     throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'signerId: only an active trainer or owner can sign.', data: { issues: [{ path: 'signerId', message: 'Only an active trainer or owner can sign.' }] } })
   }
-  const ok = body.pin !== undefined
-    ? !!signer.pinHash && await verifyPassword(signer.pinHash, body.pin)
-    : await verifyPassword(signer.passwordHash, body.password!)
+  // A PIN is short, so its tries count against the signer's account like sign-in failures do
+  // (sign-in-throttle.ts); asking for a PIN the signer has not set is no guess and is not counted.
+  const noPin = body.pin !== undefined && !signer.pinHash
+  const attempt = noPin ? undefined : await beginSignInAttempt(event, signer.email, `PIN or password tries for ${signer.name}`)
+  const ok = !noPin && (body.pin !== undefined
+    ? await verifyPassword(signer.pinHash!, body.pin)
+    : await verifyPassword(signer.passwordHash, body.password!))
   if (!ok) {
+    await attempt?.failed()
     const field = body.pin !== undefined ? 'pin' : 'password'
     const message = body.pin !== undefined && !signer.pinHash ? `${signer.name} has no PIN; use the password instead.` : `That ${field === 'pin' ? 'PIN' : 'password'} is not ${signer.name}'s.`
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message, data: { issues: [{ path: field, message }] } })
   }
+  await attempt?.succeeded()
   return { signerId: signer.id, signerName: signer.name, signerRole: signer.role as 'owner' | 'trainer', proof: signoffProof(signer.id, id) }
 })
