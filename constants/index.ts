@@ -23,6 +23,8 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/feeds', label: 'Feeds', icon: 'feeds', roles: ['owner', 'trainer', 'operator', 'trainee'] },
   { to: '/machines', label: 'Machines', icon: 'machine', roles: ['owner'] },
   { to: '/crew', label: 'Crew', icon: 'crew', roles: ['owner', 'trainer'] },
+  { to: '/ledger', label: 'Ledger', icon: 'ledger', roles: ['owner', 'trainer'] },
+  { to: '/due', label: 'Due', icon: 'due', roles: ['owner', 'trainer', 'operator', 'trainee'] },
 ]
 
 export const SAFETY_NOTE = 'Jogwise supplements, and never replaces, the machine maker\'s manual, local codes and competent practice. Stop and ask when in doubt.'
