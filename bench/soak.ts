@@ -166,7 +166,7 @@ class Tablet {
     switch (next.action) {
       case 'acknowledge-hold': this.append(makeEvent(ctx, 'hold.acknowledged', { stepKey: next.stepKey! })); break
       case 'mark-done': this.append(makeEvent(ctx, 'step.done', { stepKey: next.stepKey! })); break
-      case 'record-value': this.append(makeEvent(ctx, 'value.recorded', { stepKey: next.stepKey!, value: (step.min + step.max) / 2, unit: step.unit })); break
+      case 'record-value': this.append(makeEvent(ctx, 'value.recorded', { stepKey: next.stepKey!, value: (step.min + step.max) / 2, unit: step.unit, reason: undefined })); break
       case 'finish': this.append(makeEvent(ctx, 'run.finished')); break
       default:
         // Solo runs of these procedures need no signature or photo; anything else ends the run.
@@ -198,10 +198,13 @@ class Tablet {
       // Now and then the same batch again, as a tablet does when an answer was lost: the server
       // must accept it once more and store nothing twice.
       if (Math.random() < 0.1) {
-        replaysSent += batch.length
         const again = await api('POST', '/api/sync', { cookie: this.cookie, body: { deviceId: this.deviceId, events: batch } })
         count('sync', { status: again.status })
-        if (again.status === 200) replaysAccepted += again.body.accepted.length
+        if (again.status === 200) {
+          replaysSent += batch.length
+          replaysAccepted += again.body.accepted.length
+          for (const r of again.body.rejected) rejected.push(r)
+        }
       }
     }
     catch (error: any) {
@@ -260,11 +263,11 @@ async function main() {
   const readPaths = ['/api/procedures', '/api/machines']
   let readCursor = 0
   const readResults: autocannon.Result[] = []
-  let reader: ReturnType<typeof autocannon> | undefined
+  let reader: autocannon.Instance | undefined
   let readerDone: Promise<void> = Promise.resolve()
   const startReads = (seconds: number) => {
     readerDone = new Promise((resolve) => {
-      reader = autocannon({
+      const instance = autocannon({
         url: BASE, connections: TABLETS, connectionRate: READ_RATE, duration: Math.max(1, Math.round(seconds)), timeout: REQUEST_TIMEOUT_MS / 1000,
         requests: readPaths.map(path => ({
           method: 'GET', path,
@@ -274,11 +277,12 @@ async function main() {
         if (!error && result) readResults.push(result)
         resolve()
       })
-      reader.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
+      reader = instance
+      instance.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
         readLatency.push(responseTime)
         count('read', { status: statusCode })
       })
-      reader.on('reqError', () => count('read', { network: true }))
+      instance.on('reqError', () => count('read', { network: true }))
     })
   }
   const stopReads = async () => { reader?.stop(); await readerDone }
@@ -407,10 +411,10 @@ async function main() {
     `tablets:            ${TABLETS} (each its own operator and session), load ${loadSeconds} s, total ${clock().trim()} s`,
     `sync requests:      ${sum('sync', 'requests')} (${(sum('sync', 'requests') / loadSeconds).toFixed(1)}/s), events made ${generated.length} (${(generated.length / loadSeconds).toFixed(1)}/s), runs ${allRuns.length}`,
     `sync latency:       p50 ${ms(percentile(syncLatency, 50))}, p95 ${ms(percentile(syncLatency, 95))}, p99 ${ms(percentile(syncLatency, 99))}`,
-    `reads (autocannon): ${sum('read', 'requests')} (${(sum('read', 'requests') / loadSeconds).toFixed(1)}/s), GET ${readPaths.join(' and ')}`,
+    `reads (autocannon): ${sum('read', 'requests')} (${(sum('read', 'requests') / loadSeconds).toFixed(1)}/s), GET ${readPaths.join(' and ')}; paused while the app restarts`,
     `read latency:       p50 ${ms(percentile(readLatency, 50))}, p95 ${ms(percentile(readLatency, 95))}, p99 ${ms(percentile(readLatency, 99))} (autocannon per window p50 ${acP('p50')}, p97.5 ${acP('p97_5')}, p99 ${acP('p99')} ms)`,
     `all requests:       ${sum('sync', 'requests') + sum('read', 'requests')} (${((sum('sync', 'requests') + sum('read', 'requests')) / loadSeconds).toFixed(1)}/s); errors outside the faults: ${errorsOutside()}`,
-    `replayed batches:   ${replaysSent} events sent again, ${replaysAccepted} accepted again as replays`,
+    `replayed batches:   ${replaysSent} events sent a second time and answered, ${replaysAccepted} of them accepted again as replays`,
     ...Object.entries(byPhase).flatMap(([name, t]) => [`${`${name}:`.padEnd(20)}sync ${statusLine(t.sync)}`, `${''.padEnd(20)}read ${statusLine(t.read)}`]),
     `503 while down:     ${samples503[0] ?? '(none seen)'}`,
     ...faults.map(f => `fault:              ${f}`),

@@ -20,7 +20,7 @@ export default defineNitroPlugin((nitroApp) => {
     error.unhandled = false
     error.fatal = false
     error.data = { reason: 'database-unavailable' }
-    setResponseHeader(context.event, 'retry-after', '5')
+    setResponseHeader(context.event, 'retry-after', 5)
     const now = Date.now()
     if (now - lastLog > 1000) {
       lastLog = now
