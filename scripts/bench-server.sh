@@ -2,30 +2,40 @@
 # Runs a benchmark that needs the server: its own database (jogwise_bench) on the test MariaDB,
 # the test build, a server on port 3150; stops what it started afterwards.
 #   scripts/bench-server.sh bench/sync.ts
+# While the test suite or other work uses those, point it elsewhere (defaults in brackets):
+#   JOGWISE_BENCH_DB_DIR [mariadb-test]  JOGWISE_BENCH_DB_PORT [3418]  JOGWISE_BENCH_DB_NAME [jogwise_bench]
+#   JOGWISE_BENCH_PORT [3150]  JOGWISE_BENCH_OUTPUT_DIR [.data/test-output]
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$ROOT"
 ensure_apt_packages
 ensure_node_modules
-OUT_DIR="$ROOT/.data/test-output"
-PID="$DATA_DIR/bench-server.pid"
+OUT_DIR="${JOGWISE_BENCH_OUTPUT_DIR:-$ROOT/.data/test-output}"
+DB_DIR="${JOGWISE_BENCH_DB_DIR:-mariadb-test}"
+DB_PORT="${JOGWISE_BENCH_DB_PORT:-3418}"
+DB_NAME="${JOGWISE_BENCH_DB_NAME:-jogwise_bench}"
+PORT_BENCH="${JOGWISE_BENCH_PORT:-3150}"
+# A port of its own gets a pid file of its own, so two benchmarks never stop each other's server.
+PID="$DATA_DIR/bench-server${JOGWISE_BENCH_PORT:+-$PORT_BENCH}.pid"
+export JOGWISE_BENCH_SERVER_PID_FILE="$PID"
+
 started_db=0
-bash scripts/db.sh status mariadb-test | grep -q running || started_db=1
+bash scripts/db.sh status "$DB_DIR" "$DB_PORT" | grep -q running || started_db=1
 cleanup() {
   stop_pidfile "$PID" "the benchmark server"
-  [ "$started_db" = 1 ] && bash scripts/db.sh stop mariadb-test
+  [ "$started_db" = 1 ] && bash scripts/db.sh stop "$DB_DIR" "$DB_PORT"
   return 0
 }
 trap cleanup EXIT
-JOGWISE_DB_NAME=jogwise_bench bash scripts/db.sh start mariadb-test 3418 >/dev/null
-JOGWISE_DB_NAME=jogwise_bench bash scripts/db.sh reset-db mariadb-test 3418 >/dev/null
-export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=3418 NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=jogwise_bench
+JOGWISE_DB_NAME="$DB_NAME" bash scripts/db.sh start "$DB_DIR" "$DB_PORT" >/dev/null
+JOGWISE_DB_NAME="$DB_NAME" bash scripts/db.sh reset-db "$DB_DIR" "$DB_PORT" >/dev/null
+export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT="$DB_PORT" NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME="$DB_NAME"
 node --import tsx scripts/migrate.ts >/dev/null
 if build_is_stale "$OUT_DIR"; then
   log "building the app"
   JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/bench-build.log" 2>&1 || { tail -30 "$DATA_DIR/bench-build.log"; die "build failed"; }
 fi
 NUXT_SESSION_PASSWORD=bench-session-secret-0123456789abcdef NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD=shopfloor-demo-1 \
-  PORT=3150 HOST=127.0.0.1 setsid node "$OUT_DIR/server/index.mjs" > "$DATA_DIR/bench-server.log" 2>&1 < /dev/null &
+  PORT="$PORT_BENCH" HOST=127.0.0.1 setsid node "$OUT_DIR/server/index.mjs" > "$DATA_DIR/bench-server.log" 2>&1 < /dev/null &
 echo $! > "$PID"
-wait_for_ready http://127.0.0.1:3150/api/health 90 || die "the benchmark server did not start"
-JOGWISE_BASE_URL=http://127.0.0.1:3150 node --import tsx "$@"
+wait_for_ready "http://127.0.0.1:$PORT_BENCH/api/health" 90 || die "the benchmark server did not start"
+JOGWISE_BASE_URL="http://127.0.0.1:$PORT_BENCH" node --import tsx "$@"
