@@ -47,7 +47,11 @@ export const useSyncStore = defineStore('sync', () => {
   const watched = ref<Set<string>>(new Set())
   /** Server events per run that arrived through sync, for the run views to merge. */
   const incoming = ref<Record<string, ServerEvent[]>>({})
-  const online = useOnline()
+  // The browser's own flag says only that a network is there; shop Wi-Fi can be up with the
+  // server out of reach. The chip says Online only when both hold.
+  const networkUp = useOnline()
+  const reachable = ref(true)
+  const online = computed(() => networkUp.value && reachable.value)
   let timer: ReturnType<typeof setTimeout> | undefined
   let writing: Promise<unknown> = Promise.resolve()
 
@@ -78,18 +82,25 @@ export const useSyncStore = defineStore('sync', () => {
     schedule(0)
   }
 
-  function watch(runId: string) { watched.value.add(runId) }
+  /** Follows a run's events from other tablets; a newly followed run is asked for at once. */
+  function watch(runId: string) {
+    if (watched.value.has(runId)) return
+    watched.value.add(runId)
+    schedule(0)
+  }
 
   async function flush() {
     await load()
     const { user } = useUserSession()
-    if (sending.value || !online.value || needsSignIn.value || !user.value) return
+    if (sending.value || !networkUp.value || needsSignIn.value || !user.value) return
     // Photos go before the events, so an event naming an upload finds it stored.
     const photos = await uploadPhotos()
     if (photos.signedOut) return
     // Only the signed-in person's events can be sent with their session.
     const batch = waiting.value.filter(q => q.event.actorId === user.value!.id).slice(0, MAX_SYNC_EVENTS)
-    if (!batch.length && !watched.value.size) return
+    // With nothing to send, a request still goes out while the server seemed out of reach, so
+    // the chip finds out it is back.
+    if (!batch.length && !watched.value.size && reachable.value) return
     sending.value = true
     try {
       const res = await $fetch<SyncResponse>('/api/sync', {
@@ -122,12 +133,15 @@ export const useSyncStore = defineStore('sync', () => {
       lastSyncAt.value = new Date().toISOString()
       await localStore.set(LAST_SYNC_KEY, lastSyncAt.value)
       lastError.value = null
+      reachable.value = true
       failures.value = 0
       // More left than one batch holds, or a photo waited for its run to reach the server: go on at once.
       if (waiting.value.some(q => q.event.actorId === user.value!.id) || photos.deferred) schedule(0)
     }
     catch (error: any) {
       failures.value++
+      // No answer at all (not even an error status) means the server is out of reach.
+      reachable.value = Boolean(error?.response)
       if (error?.statusCode === 401 || error?.response?.status === 401) {
         needsSignIn.value = true
         lastError.value = 'Signed out: sign in again to send the waiting entries.'
@@ -263,8 +277,10 @@ export const useSyncStore = defineStore('sync', () => {
 
   function start() {
     if (import.meta.server) return
+    // Signed in from the tablet's memory means the server could not be asked at page load.
+    if (useState('jogwise-offline-session').value) reachable.value = false
     load().then(() => schedule(0))
-    watchEffect(() => { if (online.value) schedule(0) })
+    watchEffect(() => { if (networkUp.value) schedule(0) })
   }
 
   return {

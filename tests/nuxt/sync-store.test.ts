@@ -1,6 +1,6 @@
 import { registerEndpoint } from '@nuxt/test-utils/runtime'
 import { createPinia, setActivePinia } from 'pinia'
-import { beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { makeEvent, newRunId } from '#shared/runs'
 import { useSyncStore } from '~/stores/sync'
 import { localStore } from '~/composables/local-store'
@@ -76,6 +76,28 @@ describe('sync store', () => {
     stop()
     expect(store.queue).toEqual([])
     expect(gaps.some(Boolean)).toBe(false)
+  })
+
+  it('says Offline when the server cannot be reached although the browser reports a network', async () => {
+    // Shop Wi-Fi up, server out of reach: navigator.onLine stays true, the chip must not say Online.
+    const store = useSyncStore()
+    await store.load()
+    store.queue.push({ event: event(newRunId(), 1), queuedAt: '', state: 'waiting' })
+    const real = globalThis.$fetch
+    vi.stubGlobal('$fetch', Object.assign(() => Promise.reject(new TypeError('fetch failed')), real))
+    try {
+      await store.flush()
+    }
+    finally {
+      vi.stubGlobal('$fetch', real)
+    }
+    expect(store.online).toBe(false)
+    expect(store.waiting).toHaveLength(1)
+    // An answer with an error status still means the server is there.
+    answer = () => ({ status: 503, json: { message: 'down' } })
+    await store.flush()
+    expect(store.online).toBe(true)
+    expect(store.waiting).toHaveLength(1)
   })
 
   it('waits for a new sign-in after a 401 and loses nothing', async () => {
