@@ -52,7 +52,7 @@ test.describe('Library at 1024×768', () => {
     expect(await seriousViolations(page)).toEqual([])
     // The editor is not reachable by address either.
     await page.goto(page.url() + '/edit')
-    await expect(page.getByRole('heading', { name: 'Floor' })).toBeVisible()
+    await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
   })
 
   test('a trainer edits the resurfacing procedure, publishes, and the history shows the new version', async ({ page }) => {
@@ -61,7 +61,6 @@ test.describe('Library at 1024×768', () => {
     const before = await versionShown(page)
     await page.getByRole('link', { name: 'Edit' }).click()
     await expect(page.getByRole('heading', { name: `Edit “${RESURFACING}”` })).toBeVisible()
-    expect(await seriousViolations(page)).toEqual([])
 
     const first = page.getByRole('group', { name: /^Step 1 · / })
     const body = first.getByLabel('Step text')
@@ -95,7 +94,7 @@ test.describe('Library at 1024×768', () => {
     await expect(page.getByRole('status')).toHaveText(/^Version \d+ published\.$/, { timeout: 30_000 })
     const after = Number(/\d+/.exec(await page.getByRole('status').innerText())![0])
     expect(after).toBeGreaterThan(before)
-    expect(await versionShown(page)).toBe(after)
+    await expect.poll(() => versionShown(page)).toBe(after)
     await expect(page.getByText(marker)).toBeVisible()
     const history = page.getByRole('list', { name: 'Version history' })
     const newest = history.getByRole('listitem').first()
@@ -105,6 +104,14 @@ test.describe('Library at 1024×768', () => {
     await expect(newest).toContainText('Teodor Lind')
     await expect(history.getByRole('listitem')).toHaveCount(after)
     await page.screenshot({ path: '/tmp/library-published.png' })
+
+    // The editor checked by axe in a page of its own: once axe-core has run in a page, that
+    // page's later network answers were seen to wait some forty seconds in this Chromium.
+    const editor = await page.context().newPage()
+    await editor.goto(page.url().replace(/\?.*$/, '/edit'))
+    await expect(editor.getByRole('heading', { name: `Edit “${RESURFACING}”` })).toBeVisible()
+    expect(await seriousViolations(editor)).toEqual([])
+    await editor.close()
   })
 
   test('the owner marks an operator qualified; a trainer sees it read-only', async ({ page, browser }) => {
