@@ -55,7 +55,7 @@ test('the owner invites a trainer who joins from the e-mailed link', async ({ pa
   await joiner.screenshot({ path: 'test-results/join-page.png', fullPage: true })
   await joiner.getByLabel('Type it again').fill('trainer-new-password')
   await joiner.getByRole('button', { name: 'Join and sign in' }).click()
-  await expect(joiner.getByRole('heading', { name: 'Floor' })).toBeVisible()
+  await expect(joiner.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
   // The link worked once only.
   await joiner.goto(link!)
   await expect(joiner.getByRole('alert')).toContainText('already been used')
@@ -68,7 +68,7 @@ test('the owner invites a trainer who joins from the e-mailed link', async ({ pa
   await again.getByLabel('E-mail').fill(email)
   await again.getByLabel('Password').fill('trainer-new-password')
   await again.getByRole('button', { name: 'Sign in' }).click()
-  await expect(again.getByRole('heading', { name: 'Floor' })).toBeVisible()
+  await expect(again.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
   await fresh.close()
 
   await page.reload()
@@ -126,5 +126,5 @@ test('a trainer sees the crew read-only, without invites or mail', async ({ page
   await expect(page.getByRole('link', { name: /mail/i })).toHaveCount(0)
   // The owner's mail page sends anyone else back to the Floor.
   await page.goto('/crew/mail')
-  await expect(page.getByRole('heading', { name: 'Floor' })).toBeVisible()
+  await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
 })

@@ -9,7 +9,7 @@ export async function signIn(page: Page, role: keyof typeof DEMO) {
   await page.getByLabel('E-mail').fill(DEMO[role])
   await page.getByLabel('Password').fill(DEMO_PASSWORD)
   await page.getByRole('button', { name: 'Sign in' }).click()
-  await expect(page.getByRole('heading', { name: 'Floor' })).toBeVisible()
+  await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
 }
 
 /** Press and hold a control for `ms` (the deliberate gesture that acknowledges a hold). */

@@ -172,7 +172,12 @@ test('axe finds no serious or critical problem on the Run screen, light and dark
   await page.getByRole('button', { name: /Done — next step/ }).click()
   await expect(page.getByRole('button', { name: /Hold to acknowledge/ })).toBeVisible()
   for (const theme of ['light', 'dark']) {
-    if (theme === 'dark') await page.getByRole('button', { name: 'Use the dark theme' }).click()
+    if (theme === 'dark') {
+      await page.getByRole('button', { name: 'Use the dark theme' }).click()
+      await expect(page.locator('html')).toHaveClass(/\bdark\b/)
+      // Buttons fade their colours; contrast is measured once every fade has ended.
+      await expect.poll(() => page.evaluate(() => document.getAnimations().length)).toBe(0)
+    }
     const result = await new AxeBuilder({ page }).analyze()
     expect(result.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => `${theme} ${v.id}: ${v.help} ${v.nodes.map(n => n.target.join(' ')).slice(0, 3)}`)).toEqual([])
   }

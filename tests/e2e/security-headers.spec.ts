@@ -57,7 +57,7 @@ test('the app runs under its Content-Security-Policy with no violation', async (
   const shell = await page.request.get('/shell')
   expect(shell.headers()['content-security-policy']).toMatch(/script-src 'self' 'sha256-/)
   await page.goto('/shell')
-  await expect(page.getByRole('heading', { name: 'Floor' })).toBeVisible()
+  await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
 
   expect(seen.violations).toEqual([])
   expect(seen.refused).toEqual([])
