@@ -125,6 +125,8 @@ export const runs = mysqlTable('runs', {
 }, t => [
   index('runs_shop_status_idx').on(t.shopId, t.status),
   index('runs_machine_idx').on(t.machineId, t.startedAt),
+  // The Ledger's run list: one shop's runs, newest first.
+  index('runs_shop_started_idx').on(t.shopId, t.startedAt),
 ])
 
 export const runEvents = mysqlTable('run_events', {

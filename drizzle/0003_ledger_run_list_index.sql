@@ -1,0 +1,1 @@
+CREATE INDEX `runs_shop_started_idx` ON `runs` (`shop_id`,`started_at`);
