@@ -7,8 +7,8 @@
 #   3. replaces the photo folder (NUXT_UPLOADS_DIR, default .data/uploads) after checking every
 #      photo's sha256 against the backup's list
 #   4. counts the rows of every table and compares them with the manifest
-# Running it twice gives the same result. Stop the app first (npm run stop) when restoring over
-# the database it is using.
+# Running it twice gives the same result. It refuses to replace the database of a running app:
+# npm run stop, then npm run db:start (MariaDB alone), then npm run restore FILE, then npm start.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$ROOT"
 
@@ -48,6 +48,11 @@ tail -n 1 "$work/database.sql" | grep -q '^-- Dump completed' || die "$file is d
 created="$(node -p "require('$work/manifest.json').createdAt")"
 version="$(node -p "require('$work/manifest.json').app.version")"
 log "backup ${file#$ROOT/}: made $created by Jogwise $version from database $(node -p "require('$work/manifest.json').database.name")"
+
+# Replacing the tables under a running app would mix its writes with the backup's rows.
+if [ "$DB_PORT" = 3417 ] && [ "$DB_NAME" = "${NUXT_DB_NAME:-jogwise}" ] && pid_alive "$DATA_DIR/server.pid"; then
+  die "the app is running (pid $(cat "$DATA_DIR/server.pid")) on the database this would replace: npm run stop, npm run db:start, then restore again"
+fi
 
 sql() { mariadb --no-defaults --host="$DB_HOST" --port="$DB_PORT" --user="$DB_USER" --batch --skip-column-names "$@"; }
 

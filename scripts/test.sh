@@ -14,6 +14,9 @@ export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=$DB_PORT NUXT_DB_USER=jogwise NUXT_DB
 # The backup and restore test creates its scratch database as MariaDB root, on this socket.
 export JOGWISE_TEST_DB_SOCKET="$DATA_DIR/mariadb-test/mariadb.sock"
 export JOGWISE_BASE_URL="http://127.0.0.1:$TEST_PORT"
+# Photos of the suite's server go to a folder of their own, emptied with its database, so a
+# running `npm start` keeps its photos apart.
+export NUXT_UPLOADS_DIR="$DATA_DIR/test-uploads"
 
 ensure_apt_packages with-browser
 ensure_node_modules
@@ -35,6 +38,7 @@ npx vitest run --project unit --project nuxt
 if ! bash scripts/db.sh status mariadb-test | grep -q running; then started_db=1; fi
 JOGWISE_DB_NAME=$DB_NAME bash scripts/db.sh start mariadb-test $DB_PORT
 JOGWISE_DB_NAME=$DB_NAME bash scripts/db.sh reset-db mariadb-test $DB_PORT
+rm -rf "$NUXT_UPLOADS_DIR"
 node --import tsx scripts/migrate.ts
 
 # 3. A production build of its own (so a running `npm start` server is never disturbed).

@@ -21,7 +21,7 @@ const ROOT = resolve(import.meta.dirname, '../..')
 const SOURCE_DB = process.env.NUXT_DB_NAME || 'jogwise_test'
 // Root of the suite's MariaDB answers on its socket only (scripts/db.sh); scripts/test.sh exports it.
 const ROOT_SOCKET = process.env.JOGWISE_TEST_DB_SOCKET || join(ROOT, '.data/mariadb-test/mariadb.sock')
-// Where the running server keeps photos (it is started without NUXT_UPLOADS_DIR by scripts/test.sh).
+// Where the running server keeps photos (scripts/test.sh sets NUXT_UPLOADS_DIR to .data/test-uploads).
 const SOURCE_UPLOADS = process.env.NUXT_UPLOADS_DIR || join(ROOT, '.data/uploads')
 const TARGET_DB = `jogwise_restore_${Date.now()}`
 
