@@ -1,7 +1,5 @@
-import { spawn, type ChildProcess } from 'node:child_process'
 import { createHash, randomUUID } from 'node:crypto'
 import { existsSync, mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { GetObjectCommand, HeadObjectCommand, ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3'
@@ -11,6 +9,7 @@ import { v7 as uuidv7 } from 'uuid'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { photoKey, photoStorageFrom, checkPhotoKey } from '../../server/utils/storage'
 import { s3OptionsFrom, s3Storage } from '../../server/utils/storage-s3'
+import { freePort, SERVER_ENTRY, startApp, type AppServer } from '../support/app-server'
 import { makeJpeg, makePng, WEBP_1PX } from '../support/images'
 import { db, DEMO, DEMO_PASSWORD, otherShop } from './client'
 
@@ -18,51 +17,18 @@ import { db, DEMO, DEMO_PASSWORD, otherShop } from './client'
 // port with its own folder: first the driver itself, then the app started a second time from
 // the suite's build with NUXT_STORAGE_DRIVER=s3, and twice more with broken S3 settings.
 
-const ENTRY = process.env.JOGWISE_SERVER_ENTRY || '.data/test-output/server/index.mjs'
 const BUCKET = 'jogwise-photos'
 // s3rver's documented key pair for signed requests (s3rver README, "Supported clients").
 const KEYS = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' }
 const sha256 = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex')
 
-function freePort() {
-  return new Promise<number>((resolve, reject) => {
-    const probe = createServer().once('error', reject).listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number }
-      probe.close(() => resolve(port))
-    })
-  })
-}
-
-interface AppServer { url: string, log: () => string, stop: () => Promise<void> }
 const servers: AppServer[] = []
 
 /** The built app once more, on its own port, with the given storage settings. */
-async function startApp(env: Record<string, string>): Promise<AppServer> {
-  const port = await freePort()
-  const url = `http://127.0.0.1:${port}`
-  let output = ''
-  const child: ChildProcess = spawn(process.execPath, [ENTRY], {
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', NUXT_DEMO_SEED: '', NUXT_UPLOADS_DIR: join(folder, 'must-stay-empty'), ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  })
-  child.stdout!.on('data', d => (output += d))
-  child.stderr!.on('data', d => (output += d))
-  const server: AppServer = {
-    url,
-    log: () => output,
-    stop: () => new Promise<void>((resolve) => {
-      if (child.exitCode !== null) return resolve()
-      child.once('exit', () => resolve())
-      child.kill('SIGTERM')
-    }),
-  }
+async function startS3App(env: Record<string, string>): Promise<AppServer> {
+  const server = await startApp({ NUXT_UPLOADS_DIR: join(folder, 'must-stay-empty'), ...env })
   servers.push(server)
-  for (let i = 0; i < 160; i++) {
-    try { if ((await fetch(`${url}/api/health`)).ok) return server }
-    catch {}
-    await new Promise(r => setTimeout(r, 250))
-  }
-  throw new Error(`the app server did not start:\n${output}`)
+  return server
 }
 
 async function signIn(url: string, email: string, password = DEMO_PASSWORD) {
@@ -172,8 +138,8 @@ describe('the app with NUXT_STORAGE_DRIVER=s3', () => {
   let runId: string
 
   beforeAll(async () => {
-    if (!existsSync(ENTRY)) throw new Error(`no build at ${ENTRY}; run npm test`)
-    app = await startApp({
+    if (!existsSync(SERVER_ENTRY)) throw new Error(`no build at ${SERVER_ENTRY}; run npm test`)
+    app = await startS3App({
       NUXT_STORAGE_DRIVER: 's3',
       NUXT_S3_ENDPOINT: endpoint,
       NUXT_S3_REGION: 'us-east-1',
@@ -252,7 +218,7 @@ describe('the app with NUXT_STORAGE_DRIVER=s3', () => {
 
 describe('the app with broken S3 settings', () => {
   it('logs the missing bucket at start-up and answers uploads with a plain 503', async () => {
-    const app = await startApp({ NUXT_STORAGE_DRIVER: 's3', NUXT_S3_ENDPOINT: endpoint, NUXT_S3_REGION: 'us-east-1', NUXT_S3_BUCKET: '' })
+    const app = await startS3App({ NUXT_STORAGE_DRIVER: 's3', NUXT_S3_ENDPOINT: endpoint, NUXT_S3_REGION: 'us-east-1', NUXT_S3_BUCKET: '' })
     expect(app.log()).toMatch(/photo storage is not set up[\s\S]*NUXT_S3_BUCKET is empty/)
     const cookie = await signIn(app.url, DEMO.operator)
     const res = await putPhoto(app.url, randomUUID(), uuidv7(), makePng(2, 2), cookie)
@@ -268,7 +234,7 @@ describe('the app with broken S3 settings', () => {
   })
 
   it('logs the S3 error and answers 503 when the bucket is not there', async () => {
-    const app = await startApp({ NUXT_STORAGE_DRIVER: 's3', NUXT_S3_ENDPOINT: endpoint, NUXT_S3_REGION: 'us-east-1', NUXT_S3_BUCKET: 'no-such-bucket', NUXT_S3_ACCESS_KEY_ID: KEYS.accessKeyId, NUXT_S3_SECRET_ACCESS_KEY: KEYS.secretAccessKey, NUXT_S3_FORCE_PATH_STYLE: 'true' })
+    const app = await startS3App({ NUXT_STORAGE_DRIVER: 's3', NUXT_S3_ENDPOINT: endpoint, NUXT_S3_REGION: 'us-east-1', NUXT_S3_BUCKET: 'no-such-bucket', NUXT_S3_ACCESS_KEY_ID: KEYS.accessKeyId, NUXT_S3_SECRET_ACCESS_KEY: KEYS.secretAccessKey, NUXT_S3_FORCE_PATH_STYLE: 'true' })
     const cookie = await signIn(app.url, DEMO.operator)
     const [[run]] = await db().query<any[]>('select r.id from runs r join users u on u.shop_id = r.shop_id where u.email = ? limit 1', [DEMO.operator])
     const id = randomUUID()
