@@ -39,14 +39,14 @@ export const SurfacingInputSchema = z.object({
   area: z.object({
     x: positive('Area X'),
     y: positive('Area Y'),
-  }, { error: 'Give the area as its X and Y sizes.' }),
+  }, { error: 'Give the area as its X and Y sizes.' }).strict(),
   cutter: z.object({
     diameter: positive('Cutter diameter'),
     flutes: number('Flutes')
       .int({ error: 'Flutes must be a whole number.' })
       .min(1, { error: 'A cutter has at least 1 flute.' })
       .max(16, { error: 'More than 16 flutes is not a router cutter.' }),
-  }, { error: 'Give the cutter\'s diameter and number of flutes.' }),
+  }, { error: 'Give the cutter\'s diameter and number of flutes.' }).strict(),
   stepoverPct: positive('Stepover')
     .max(100, { error: 'Stepover cannot be more than 100 % of the cutter diameter, or strips between lines stay uncut.' }),
   overhang: number('Overhang')
@@ -56,7 +56,7 @@ export const SurfacingInputSchema = z.object({
   depthPerPass: positive('Depth per pass'),
   finishingPass: z.object({
     depth: positive('Finishing depth'),
-  }, { error: 'Give the finishing pass as its depth.' }).optional(),
+  }, { error: 'Give the finishing pass as its depth.' }).strict().optional(),
   feed: positive('Feed'),
   plunge: positive('Plunge rate'),
   rpm: positive('Spindle speed')
@@ -74,7 +74,8 @@ export const SurfacingInputSchema = z.object({
   runId: z.string({ error: 'Run id must be text.' })
     .min(1, { error: 'Run id cannot be empty.' })
     .max(36, { error: 'Run id is at most 36 characters.' }).optional(),
-}).superRefine((v, ctx) => {
+// A misspelt field (e.g. "stepover" for "stepoverPct") is refused, not silently ignored.
+}).strict().superRefine((v, ctx) => {
   const u: LengthUnit = v.units
   const limit = (mm: number) => fromMm(mm, u)
   const show = (value: number) => formatLength(value, u)

@@ -16,6 +16,14 @@ describe('surfacing input validation', () => {
     expect(SurfacingInputSchema.safeParse(good).success).toBe(true)
   })
 
+  it('refuses a field it does not know instead of ignoring it', () => {
+    const result = planSurfacing({ ...good, stepover: 40 } as SurfacingInput)
+    expect(result.ok).toBe(false)
+    if (!result.ok) expect(result.issues.map(i => i.message).join(' ')).toMatch(/stepover/)
+    const nested = SurfacingInputSchema.safeParse({ ...good, cutter: { diameter: 25.4, flutes: 2, helix: 30 } })
+    expect(nested.success).toBe(false)
+  })
+
   it.each([
     ['units', { units: 'cm' }, 'Units must be \'mm\' or \'in\'.'],
     ['area.x', { area: { x: 0, y: 400 } }, 'Area X must be more than 0.'],
