@@ -275,4 +275,27 @@ describe('GET /api/ledger/runs', () => {
     expect((await call('GET', '/api/ledger/runs?status=gone', { cookie: await as('owner') })).status).toBe(400)
     expect((await call('GET', `/api/ledger/runs?machineId=${other.machineId}`, { cookie: await as('owner') })).body.total).toBe(0)
   })
+
+  it('counts a photo that was undone no more', async () => {
+    const owner = await as('owner')
+    const made = await call('POST', '/api/procedures', { cookie: owner, body: { procedure: {
+      title: `Ledger photo count ${Date.now()}`, summary: 'One photo step and a sign-off, for the run list count.', category: 'maintenance',
+      steps: [
+        { key: 'pic', kind: 'photo', title: 'Photograph the collet', body: 'Take one photo of the collet.', subject: 'The collet, close up.' },
+        { key: 'sign', kind: 'signoff', title: 'Sign off', body: 'Sign the run.', statement: 'The collet was photographed.' },
+      ],
+    } } })
+    expect(made.status, made.text).toBe(201)
+    const runId = uuidv7()
+    const first = ev(runId, 'trainer', 'photo.attached', 13, 1, { stepKey: 'pic', note: 'blurred, taken again' })
+    await sync('trainer', [
+      ev(runId, 'trainer', 'run.started', 13, 0, { procedureVersionId: made.body.versionId, machineId, mode: 'solo' }),
+      first,
+      ev(runId, 'trainer', 'event.undone', 13, 2, { targetId: first.id }),
+      ev(runId, 'trainer', 'photo.attached', 13, 3, { stepKey: 'pic', note: 'sharp' }),
+    ])
+    const res = await call('GET', `/api/ledger/runs?procedureId=${made.body.id}`, { cookie: owner })
+    expect(res.status, res.text).toBe(200)
+    expect(res.body.rows.map((r: any) => [r.id, r.photos])).toEqual([[runId, 1]])
+  })
 })

@@ -46,16 +46,19 @@ export default defineEventHandler(async (event) => {
   const counts = new Map<string, { overrides: number, photos: number, signoffs: number }>()
   if (rows.length) {
     const e = tables.runEvents
-    // Events that took effect (no flag), counted by kind per run of the page
-    const tallies = await db.select({
-      runId: e.runId,
-      overrides: sql<string>`sum(${e.type} = 'hold.overridden')`,
-      photos: sql<string>`sum(${e.type} = 'photo.attached')`,
-      signoffs: sql<string>`sum(${e.type} = 'signoff.given')`,
-    }).from(e)
-      .where(and(eq(e.shopId, user.shopId), inArray(e.runId, rows.map(x => x.id)), isNull(e.flag), inArray(e.type, ['hold.overridden', 'photo.attached', 'signoff.given'])))
-      .groupBy(e.runId)
-    for (const t of tallies) counts.set(t.runId, { overrides: Number(t.overrides), photos: Number(t.photos), signoffs: Number(t.signoffs) })
+    // Events that took effect (no flag) per run of the page. A photo whose step was undone no
+    // longer counts; overrides and sign-offs cannot be undone (the fold refuses it).
+    const kept = await db.select({ id: e.id, runId: e.runId, type: e.type, payload: e.payload }).from(e)
+      .where(and(eq(e.shopId, user.shopId), inArray(e.runId, rows.map(x => x.id)), isNull(e.flag), inArray(e.type, ['hold.overridden', 'photo.attached', 'signoff.given', 'event.undone'])))
+    const undone = new Set(kept.filter(x => x.type === 'event.undone').map(x => String(x.payload.targetId)))
+    for (const x of kept) {
+      if (x.type === 'event.undone' || undone.has(x.id)) continue
+      const c = counts.get(x.runId) ?? { overrides: 0, photos: 0, signoffs: 0 }
+      if (x.type === 'hold.overridden') c.overrides++
+      else if (x.type === 'photo.attached') c.photos++
+      else c.signoffs++
+      counts.set(x.runId, c)
+    }
   }
   return {
     rows: rows.map(x => ({
