@@ -258,7 +258,16 @@ export const useSyncStore = defineStore('sync', () => {
   function schedule(ms: number) {
     if (import.meta.server) return
     clearTimeout(timer)
-    timer = setTimeout(() => { flush().finally(() => schedule(INTERVAL_MS)) }, ms)
+    // The regular interval follows only if the flush set no sooner time itself (more to send at
+    // once, or its backoff after a failure).
+    const mine = setTimeout(() => { flush().finally(() => { if (timer === mine) schedule(INTERVAL_MS) }) }, ms)
+    timer = mine
+  }
+
+  /** Stops the timed replay (a store that is thrown away, as between tests, must not go on). */
+  function stop() {
+    clearTimeout(timer)
+    timer = undefined
   }
 
   /** After signing in again the replay continues where it stopped. */
@@ -284,7 +293,7 @@ export const useSyncStore = defineStore('sync', () => {
   }
 
   return {
-    queue, waiting, rejected, loaded, sending, lastSyncAt, lastError, needsSignIn, online, incoming, cursor, load, enqueue, flush, resume, retry, start, watch,
+    queue, waiting, rejected, loaded, sending, lastSyncAt, lastError, needsSignIn, online, incoming, cursor, load, enqueue, flush, resume, retry, start, stop, watch,
     photosWaiting, photoProblems, keepPhoto, uploadPhotos, retryPhoto,
   }
 })

@@ -1,6 +1,6 @@
 import { registerEndpoint } from '@nuxt/test-utils/runtime'
 import { createPinia, setActivePinia } from 'pinia'
-import { beforeEach, describe, expect, it, vi } from 'vitest'
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { makeEvent, newRunId } from '#shared/runs'
 import { useSyncStore } from '~/stores/sync'
 import { localStore } from '~/composables/local-store'
@@ -33,6 +33,8 @@ beforeEach(async () => {
   await localStore.del('queue')
   await localStore.del('cursor')
 })
+// Each test's store is thrown away; its timed replay must not write into the next test's queue.
+afterEach(() => useSyncStore().stop())
 
 describe('sync store', () => {
   it('keeps an event in IndexedDB before anything is sent', async () => {
@@ -127,5 +129,17 @@ describe('sync store', () => {
     expect(seen[0].events.every((e: any) => e.actorId === USER.id)).toBe(true)
     await store.flush()
     expect(store.queue.map(q => q.event.id)).toEqual([other.id])
+  })
+
+  it('sends the next batch at once when more waits than one batch holds, not at the next interval', async () => {
+    answer = body => ({ json: { accepted: body.events.map((x: any) => x.id), rejected: [], events: [], cursor: 1 } })
+    const store = useSyncStore()
+    await store.load()
+    const runId = newRunId()
+    for (let i = 0; i < 520; i++) store.queue.push({ event: event(runId, i), queuedAt: '', state: 'waiting' })
+    store.start()
+    // The regular interval is 20 s; both batches must be out long before that.
+    await vi.waitFor(() => expect(store.queue).toEqual([]), { timeout: 5000, interval: 50 })
+    expect(seen.map(r => r.events.length)).toEqual([500, 20])
   })
 })
