@@ -5,7 +5,10 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$ROOT"
 
 TEST_PORT="${JOGWISE_TEST_PORT:-3100}"
-DB_PORT=3418
+DB_PORT="${JOGWISE_TEST_DB_PORT:-3418}"
+# Several checkouts can run the suite at once when each sets its own ports.
+SMTP_PORT="${JOGWISE_TEST_SMTP_PORT:-3427}"
+MAIL_WEB_PORT="${JOGWISE_TEST_MAIL_WEB_PORT:-3428}"
 OUT_DIR="$ROOT/.data/test-output"
 SERVER_PID="$DATA_DIR/test-server-$TEST_PORT.pid"
 export JOGWISE_DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}"
@@ -31,8 +34,17 @@ cleanup() {
 trap cleanup EXIT
 
 # 1. Pure code and components: no server needed.
-log "unit and component tests"
-npx vitest run --project unit --project nuxt
+# JOGWISE_TEST_PARTS (default "unit api e2e") and JOGWISE_TEST_FILTER (file filters passed to
+# vitest and Playwright) narrow a run while working on one thing; CI always runs everything.
+PARTS="${JOGWISE_TEST_PARTS:-unit api e2e}"
+read -r -a FILTER <<< "${JOGWISE_TEST_FILTER:-}"
+VITEST_FILTER=() PW_FILTER=()
+if [ ${#FILTER[@]} -gt 0 ]; then VITEST_FILTER=(--passWithNoTests "${FILTER[@]}"); PW_FILTER=(--pass-with-no-tests "${FILTER[@]}"); fi
+has_part() { [[ " $PARTS " == *" $1 "* ]]; }
+if has_part unit; then
+  log "unit and component tests"
+  npx vitest run --project unit --project nuxt ${VITEST_FILTER[@]+"${VITEST_FILTER[@]}"}
+fi
 
 # 2. The suite's own database, emptied each run.
 if ! bash scripts/db.sh status mariadb-test | grep -q running; then started_db=1; fi
@@ -50,12 +62,12 @@ stop_pidfile "$SERVER_PID" "a leftover test app server"
 # The suite's own fake SMTP server, emptied each run; the tests read what it caught through its
 # REST API (JOGWISE_MAIL_API_URL). A short worker interval and retry waits keep the tests quick.
 bash scripts/maildev.sh stop maildev-test
-bash scripts/maildev.sh start maildev-test 3427 3428 fresh
-export NUXT_MAIL_SMTP_HOST=127.0.0.1 NUXT_MAIL_SMTP_PORT=3427 NUXT_MAIL_SMTP_SECURE=false \
-  NUXT_MAIL_FROM='Jogwise <jogwise@test.jogwise.test>' NUXT_MAIL_FAKE_API_URL=http://127.0.0.1:3428 \
+bash scripts/maildev.sh start maildev-test $SMTP_PORT $MAIL_WEB_PORT fresh
+export NUXT_MAIL_SMTP_HOST=127.0.0.1 NUXT_MAIL_SMTP_PORT=$SMTP_PORT NUXT_MAIL_SMTP_SECURE=false \
+  NUXT_MAIL_FROM='Jogwise <jogwise@test.jogwise.test>' NUXT_MAIL_FAKE_API_URL=http://127.0.0.1:$MAIL_WEB_PORT \
   NUXT_MAIL_WORKER_INTERVAL_MS=500 NUXT_MAIL_RETRY_BASE_MS=500 NUXT_MAIL_RETRY_CAP_MS=3000 \
   NUXT_SITE_URL="$JOGWISE_BASE_URL"
-export JOGWISE_MAIL_API_URL=http://127.0.0.1:3428
+export JOGWISE_MAIL_API_URL=http://127.0.0.1:$MAIL_WEB_PORT
 # The API tests start a second server from the same build (crash and restart checks).
 export NUXT_SESSION_PASSWORD="test-session-secret-0123456789abcdef" JOGWISE_SERVER_ENTRY="$OUT_DIR/server/index.mjs"
 NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" \
@@ -64,8 +76,12 @@ echo $! > "$SERVER_PID"
 wait_for_ready "$JOGWISE_BASE_URL/api/health" 90 || { tail -30 "$DATA_DIR/test-server.log"; die "the test server did not become ready"; }
 
 # 4. HTTP against the real server and MariaDB, then real Chromium.
-log "API tests against MariaDB"
-npx vitest run --project api
-log "browser tests in Chromium"
-npx playwright test
+if has_part api; then
+  log "API tests against MariaDB"
+  npx vitest run --project api ${VITEST_FILTER[@]+"${VITEST_FILTER[@]}"}
+fi
+if has_part e2e; then
+  log "browser tests in Chromium"
+  npx playwright test ${PW_FILTER[@]+"${PW_FILTER[@]}"}
+fi
 log "all tests passed"
