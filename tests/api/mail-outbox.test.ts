@@ -2,6 +2,7 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import { existsSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { as, call, db, DEMO, DEMO_PASSWORD } from './client'
+import { freePort } from '../support/app-server'
 import { caughtMail, MAIL_API, outboxRow, sleep, until } from './mail'
 
 // The SMTP server goes away while mail is being written: the mail waits in the outbox with its
@@ -13,8 +14,8 @@ const ENTRY = process.env.JOGWISE_SERVER_ENTRY || '.data/test-output/server/inde
 const FAKE = process.env.JOGWISE_MAILDEV_NAME || 'maildev-test'
 const SMTP_PORT = process.env.NUXT_MAIL_SMTP_PORT || '3427'
 const WEB_PORT = new URL(MAIL_API).port
-const PORT = 3192
-const SECOND = `http://127.0.0.1:${PORT}`
+let PORT = 0
+let SECOND = ''
 let server: ChildProcess | undefined
 
 function fake(cmd: 'start' | 'stop') {
@@ -26,6 +27,8 @@ const fakeUp = () => fetch(`${MAIL_API}/api/healthz`).then(r => r.ok, () => fals
 
 beforeAll(async () => {
   if (!existsSync(ENTRY)) throw new Error(`no build at ${ENTRY}; run npm test`)
+  PORT = await freePort()
+  SECOND = `http://127.0.0.1:${PORT}`
   // Same database and SMTP settings, but no caught-mail page (NUXT_MAIL_FAKE_API_URL empty).
   server = spawn(process.execPath, [ENTRY], { env: { ...process.env, PORT: String(PORT), HOST: '127.0.0.1', NUXT_DEMO_SEED: '', NUXT_MAIL_FAKE_API_URL: '' }, stdio: 'ignore' })
   await until('the second server', () => fetch(`${SECOND}/api/health`).then(r => r.ok, () => false), 30_000)

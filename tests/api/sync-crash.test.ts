@@ -2,14 +2,15 @@ import { spawn, type ChildProcess } from 'node:child_process'
 import { existsSync } from 'node:fs'
 import { v7 as uuidv7 } from 'uuid'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { freePort } from '../support/app-server'
 import { call, db, DEMO, DEMO_PASSWORD, signIn } from './client'
 
 // The app process killed in the middle of a sync batch and started again: the tablet sends
 // the same batch again, and the database ends with every event exactly once.
 
 const ENTRY = process.env.JOGWISE_SERVER_ENTRY || '.data/test-output/server/index.mjs'
-const PORT = 3190
-const URL_ = `http://127.0.0.1:${PORT}`
+let PORT = 0
+let URL_ = ''
 let server: ChildProcess | undefined
 
 async function startServer() {
@@ -28,6 +29,8 @@ function killServer() {
 
 beforeAll(async () => {
   if (!existsSync(ENTRY)) throw new Error(`no build at ${ENTRY}; run npm test`)
+  PORT = await freePort()
+  URL_ = `http://127.0.0.1:${PORT}`
   await startServer()
 })
 afterAll(async () => {
