@@ -36,9 +36,14 @@ export function useRun(runId: string) {
   async function load() {
     await sync.load()
     const cached = await localStore.get<RunSnapshot>(snapshotKey(runId))
-    if (cached) { snapshot.value = cached; fromCache.value = true }
+    // The tablet's copy draws the screen at once; it is labelled only if the server cannot answer.
+    if (cached) snapshot.value = cached
     try {
-      const res = await $fetch<{ run: { machineId: number }, version: RunVersion, events: ServerEvent[], people: Record<number, string> }>(`/api/runs/${runId}`, { timeout: 8000 })
+      const raw = await $fetch.raw<{ run: { machineId: number }, version: RunVersion, events: ServerEvent[], people: Record<number, string> }>(`/api/runs/${runId}`, { timeout: 8000 })
+      const res = raw._data!
+      // Offline the service worker answers from its cache with the server's original Date header.
+      const servedAt = Date.parse(raw.headers.get('date') ?? '')
+      const saved = Number.isFinite(servedAt) && Date.now() - servedAt > 120_000
       const machines = await $fetch<{ id: number, name: string }[]>('/api/machines', { timeout: 8000 }).catch(() => [])
       snapshot.value = {
         runId,
@@ -49,12 +54,14 @@ export function useRun(runId: string) {
         people: res.people,
         savedAt: new Date().toISOString(),
       }
-      fromCache.value = false
+      fromCache.value = saved
       await localStore.set(snapshotKey(runId), toRaw(snapshot.value))
     }
     catch (error: any) {
       // Offline, or the run's start has not reached the server yet: the tablet's copy stands.
-      if (!snapshot.value) {
+      // (A 404 means the run's start is still in this tablet's queue: its copy is the only one.)
+      if (snapshot.value) fromCache.value = error?.statusCode !== 404
+      else {
         loadError.value = error?.statusCode === 404
           ? 'This run is not on this tablet and the server does not know it.'
           : 'This run is not on this tablet yet, and the server cannot be reached.'

@@ -85,7 +85,15 @@ const base = {
   guidance: text('Guidance', { min: 0, max: 1500 }).default(''),
 }
 
-export const InstructionStepSchema = z.object({ ...base, kind: z.literal('instruction') })
+/** Screens an instruction may send the operator to; the Run screen links there for the run's machine. */
+export const STEP_SCREENS = ['board', 'feeds'] as const
+export type StepScreen = typeof STEP_SCREENS[number]
+
+export const InstructionStepSchema = z.object({
+  ...base,
+  kind: z.literal('instruction'),
+  opens: z.enum(STEP_SCREENS, { error: `Screen to open must be one of ${STEP_SCREENS.join(', ')}.` }).optional(),
+})
 
 export const HoldStepSchema = z.object({
   ...base,

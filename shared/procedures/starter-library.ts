@@ -113,6 +113,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         kind: 'instruction',
         title: 'Check how much board is left',
         body: 'Open the Board screen for this machine. Note the present thickness and the minimum thickness. If the board is close to its minimum, stop and ask your trainer.',
+        opens: 'board',
         guidance: 'Every facing takes material off for good. A board that gets too thin flexes under clamps and lets through-cuts reach the table underneath.',
       },
       protectiveGear(),

@@ -1,5 +1,5 @@
 import { expect, test, type APIRequestContext } from '@playwright/test'
-import { signIn, startProcedure } from './helpers'
+import { runReady, signIn, startProcedure } from './helpers'
 
 // Mail in the browser at 1024×768 with touch: the owner invites a trainer, the invite is read
 // from the fake SMTP server's own REST API (maildev), the link is followed signed out, a
@@ -87,6 +87,7 @@ test('a trainer\'s hold override reaches the owner by e-mail with the reason', a
   const action = page.getByTestId('primary-action')
   await action.getByRole('button', { name: /Done — (next|last) step/ }).click()
   await expect(action.getByRole('button', { name: /Hold to acknowledge/ })).toBeVisible()
+  await runReady(page)
   await page.getByRole('button', { name: 'Override this hold' }).click()
   await page.getByLabel(/Why is it safe to go past this hold/).fill(reason)
   await page.getByRole('button', { name: 'Override with this reason' }).click()

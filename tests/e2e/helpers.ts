@@ -14,6 +14,7 @@ export async function signIn(page: Page, role: keyof typeof DEMO) {
 
 /** Press and hold a control for `ms` (the deliberate gesture that acknowledges a hold). */
 export async function pressAndHold(page: Page, name: RegExp | string, ms = 1800) {
+  await runReady(page)
   const button = page.getByRole('button', { name })
   await button.hover()
   await page.mouse.down()
@@ -38,9 +39,21 @@ export async function startProcedure(page: Page, machine: string, procedure: Reg
   await page.goto('/')
   await page.getByRole('article', { name: machine }).getByRole('link', { name: 'Start a procedure' }).click()
   await page.getByRole('button', { name: procedure }).click()
+  // One confirmation screen (procedure, version, machine, guided or solo) before the run starts.
+  await expect(page.getByTestId('start-confirm')).toHaveAttribute('data-ready', 'true')
+  await page.getByRole('button', { name: 'Start the run' }).click()
   await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/)
   await expect(page.getByTestId('primary-action')).toBeVisible()
+  await runReady(page)
   return page.url().split('/').pop()!
+}
+
+/**
+ * After every action and change of step the Run screen ignores input until the finger has
+ * lifted and a short settle time has passed (composables/tap-guard.ts); tests wait for it.
+ */
+export async function runReady(page: Page) {
+  await expect(page.getByTestId('primary-action-area')).toHaveAttribute('data-ready', 'true')
 }
 
 export const syncState = (page: Page) => page.getByTestId('sync-state')

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { pressAndHold, signInForOffline, startProcedure, syncState } from './helpers'
+import { pressAndHold, runReady, signInForOffline, startProcedure, syncState } from './helpers'
 
 // The shop Wi-Fi drops: the run goes on, a hard reload still opens the Run screen from the
 // service worker, and everything entered reaches the server once the network is back.
@@ -20,6 +20,7 @@ test('a run goes on offline, survives a hard reload and closing the tab, then sy
   await pressAndHold(page, /Hold to acknowledge/)
   await expect(page.getByRole('heading', { level: 1 })).toHaveText('Handle cutters by the shank')
   await pressAndHold(page, /Hold to acknowledge/)
+  await runReady(page)
   await page.getByRole('button', { name: /Done — next step/ }).click()
   await expect(syncState(page)).toContainText('3 waiting')
   await page.screenshot({ path: 'test-results/offline-run.png' })
@@ -55,6 +56,7 @@ test('two tablets on one run, both offline, both online again, end up showing th
 
   await a.setOffline(true)
   await b.setOffline(true)
+  await runReady(pageB)
   await pageA.getByRole('button', { name: 'Add a note' }).click()
   await pageA.getByLabel('Note').fill('Tablet A: stop button cap cracked.')
   await pageA.getByRole('button', { name: 'Save note' }).click()

@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
-import { pressAndHold, signIn, startProcedure } from './helpers'
+import { pressAndHold, runReady, signIn, startProcedure } from './helpers'
 
 // The Run screen at 1024×768 with touch: a trainee's guided resurfacing run from the first step
 // to the trainer's sign-off, holds that a quick tap cannot pass, resuming after a reload, and
@@ -30,6 +30,7 @@ async function completeRun(page: Page, runId: string, opts: { checkQuickTap?: bo
   for (let guard = 0; guard < 200; guard++) {
     try {
       await expect(action).toBeVisible()
+      await runReady(page)
       const heading = (await page.getByRole('heading', { level: 1 }).textContent())?.trim()
       const step = steps.find(s => s.title === heading)
       if (await action.getByRole('button', { name: /Finish the run/ }).isVisible()) {
@@ -135,9 +136,11 @@ test('an operator resumes a run exactly where it was after a reload', async ({ p
   await expect(page.getByRole('heading', { level: 1 })).toHaveText(before!)
   await expect(page.getByText('2 of 11 done')).toBeVisible()
   // Undo takes back only the last action.
+  await runReady(page)
   await page.getByRole('button', { name: 'Add a note' }).click()
   await page.getByLabel('Note').fill('Collet nut threads look worn.')
   await page.getByRole('button', { name: 'Save note' }).click()
+  await runReady(page)
   await page.getByRole('button', { name: /^Undo note/ }).click()
   await expect(page.getByText('Collet nut threads look worn.')).toHaveCount(0)
 })
