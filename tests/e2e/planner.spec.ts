@@ -2,7 +2,7 @@ import { readFile } from 'node:fs/promises'
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
 import { v7 as uuidv7 } from 'uuid'
-import { signIn } from './helpers'
+import { runReady, signIn } from './helpers'
 
 // The Planner at 1024×768 as an operator uses it beside the demo shop's Bench Router
 // (620 × 620 × 90 mm travel, inch units). Word meanings from the NIST RS274/NGC interpreter
@@ -101,6 +101,7 @@ test.describe('Planner at 1024×768', () => {
   test('opened from a run\'s planner step, the plan is stored and attached to that step', async ({ page }) => {
     const { runId, bench, api } = await runAtPlannerStep(page)
     await page.goto(`/runs/${runId}`)
+    await runReady(page)
     await page.getByRole('link', { name: 'Open the Planner' }).click()
     await expect(page.getByRole('heading', { name: 'Planner', level: 1 })).toBeVisible()
     await expect(page.getByLabel('Machine')).toHaveValue(String(bench.id))
@@ -126,6 +127,7 @@ test.describe('Planner at 1024×768', () => {
   test('offline, the plan\'s summary is attached to the run and reaches the server later', async ({ page, context }) => {
     const { runId } = await runAtPlannerStep(page)
     await page.goto(`/runs/${runId}`)
+    await runReady(page)
     await page.getByRole('link', { name: 'Open the Planner' }).click()
     await expect(page.getByTestId('planner-preview')).toBeVisible()
     await context.setOffline(true)

@@ -35,8 +35,9 @@ async function tap(cdp: CDPSession, at: { x: number, y: number }) {
   await touchDown(cdp, at)
   await touchUp(cdp)
 }
+// The events the server stored for the run (none yet while its start is still in the queue).
 const serverTypes = async (page: Page, runId: string) =>
-  ((await (await page.request.get(`/api/runs/${runId}`)).json()).events as { type: string, stepKey?: string }[]).map(e => `${e.type}${e.stepKey ? `:${e.stepKey}` : ''}`)
+  (((await (await page.request.get(`/api/runs/${runId}`)).json()).events ?? []) as { type: string, stepKey?: string }[]).map(e => `${e.type}${e.stepKey ? `:${e.stepKey}` : ''}`)
 const syncedCount = (page: Page, runId: string, n: number) =>
   expect.poll(async () => (await serverTypes(page, runId)).length, { timeout: 20_000 }).toBe(n)
 
