@@ -1,0 +1,1 @@
+export { parseOptionalNumber, parseTypedNumber } from './typed-number'
