@@ -133,7 +133,7 @@ test('a trainee\'s sign-off keeps the hold being signed in view beside the signe
   expect(await inView(page, panel.locator('p').first())).toBe(true)
   expect(await inView(page, page.getByRole('heading', { level: 1 }))).toBe(true)
   await action.getByText('Teodor Lind', { exact: true }).click()
-  const chosen = action.locator('label', { hasText: 'Teodor Lind' })
+  const chosen = action.getByText('Teodor Lind', { exact: true })
   await page.screenshot({ path: 'test-results/layout-signoff.png' })
   await axe('sign-off')
   // The chosen signer stays readable after a touch (no sticky hover colour under the finger).
