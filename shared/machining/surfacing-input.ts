@@ -178,5 +178,12 @@ export const SurfacingInputSchema = z.object({
   }
 })
 
+/** A stored plan's input in today's field names: `warmupSeconds` was renamed `spinUpSeconds`. */
+export function upgradeStoredInput(input: unknown): unknown {
+  if (!input || typeof input !== 'object' || !('warmupSeconds' in input)) return input
+  const { warmupSeconds, ...rest } = input as Record<string, unknown>
+  return 'spinUpSeconds' in rest ? rest : { ...rest, spinUpSeconds: warmupSeconds }
+}
+
 export type SurfacingInput = z.input<typeof SurfacingInputSchema>
 export type SurfacingRequest = z.output<typeof SurfacingInputSchema>

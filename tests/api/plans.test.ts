@@ -212,5 +212,13 @@ describe('surfacing program order, passes, milling, dwell and cutters', () => {
     expect(foreign.status).toBe(404)
     expect(foreign.text).not.toContain('Other cutter')
   })
-})
 
+  it('writes a plan stored before the rename (warmupSeconds) again with its spin-up dwell', async () => {
+    const made = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: MM_PLAN })
+    const { spinUpSeconds, ...old } = MM_PLAN
+    await db().query('update surfacing_plans set input = ? where id = ?', [JSON.stringify({ ...old, warmupSeconds: spinUpSeconds }), made.body.planId])
+    const got = await call('GET', `/api/plans/${made.body.planId}`, { cookie: await as('operator') })
+    expect(got.status, got.text).toBe(200)
+    expect(blocks(got.body.gcode)).toContain('G4 P5')
+  })
+})
