@@ -57,9 +57,9 @@ export function materialRemovalRate(widthOfCut: number, depthOfCut: number, feed
   return widthOfCut * depthOfCut * feed
 }
 
-/** Sensible limits of the Feeds screen, in mm, mm/min and rpm. */
+/** Sensible limits of the Feeds screen, in mm, mm/min and rpm (10 rpm still admits slow milling-cutter examples). */
 export const FEEDS_LIMITS_MM = {
-  minDiameter: 0.1, maxDiameter: 150, minRpm: 100, maxRpm: 60_000, minChipLoad: 0.0005, maxChipLoad: 5,
+  minDiameter: 0.1, maxDiameter: 150, minRpm: 10, maxRpm: 60_000, minChipLoad: 0.0005, maxChipLoad: 5,
   minFeed: 1, maxFeed: 100_000, minCut: 0.001, maxDepth: 100,
 } as const
 
