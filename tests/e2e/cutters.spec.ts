@@ -61,5 +61,10 @@ test.describe('Cutters', () => {
     await operator.getByLabel(/^Diameter/).fill('40')
     await expect(operator.getByLabel('Cutter from the shop\'s list')).toHaveValue('0')
     await operatorContext.close()
+
+    // The trainer removes it again; the list no longer shows it.
+    await page.getByRole('button', { name: `Remove ${name}` }).click()
+    await expect(page.getByRole('status')).toHaveText(`${name} removed from the list.`)
+    await expect(page.getByTestId('cutter').filter({ hasText: name })).toHaveCount(0)
   })
 })
