@@ -24,6 +24,10 @@ export default {
         warning: v('warning'),
         caution: v('caution'),
         notice: v('notice'),
+        // Our own colours for things that are not hazards (due work, guided runs, the cutter's path).
+        'due': v('due'),
+        'due-ink': v('due-ink'),
+        'guide': v('guide'),
       },
       fontFamily: {
         sans: ['"Atkinson Hyperlegible"', 'system-ui', 'sans-serif'],

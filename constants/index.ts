@@ -21,6 +21,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/planner', label: 'Planner', icon: 'planner', roles: ['owner', 'trainer', 'operator', 'trainee'] },
   { to: '/board', label: 'Board', icon: 'board', roles: ['owner', 'trainer', 'operator', 'trainee'] },
   { to: '/feeds', label: 'Feeds', icon: 'feeds', roles: ['owner', 'trainer', 'operator', 'trainee'] },
+  { to: '/cutters', label: 'Cutters', icon: 'cutter', roles: ['owner', 'trainer', 'operator', 'trainee'] },
   { to: '/machines', label: 'Machines', icon: 'machine', roles: ['owner'] },
   { to: '/crew', label: 'Crew', icon: 'crew', roles: ['owner', 'trainer'] },
   { to: '/ledger', label: 'Ledger', icon: 'ledger', roles: ['owner', 'trainer'] },

@@ -8,6 +8,8 @@ import {
 
 export const ROLES = ['owner', 'trainer', 'operator', 'trainee'] as const
 export const SPINDLE_KINDS = ['trim-router', 'air-spindle', 'water-spindle'] as const
+export const DWELL_UNITS = ['seconds', 'milliseconds'] as const
+export const TOOL_KINDS = ['surfacing', 'straight', 'spiral-up', 'spiral-down', 'compression', 'ball-nose', 'v-bit', 'other'] as const
 
 const createdAt = () => timestamp('created_at', { fsp: 3 }).notNull().defaultNow()
 const updatedAt = () => timestamp('updated_at', { fsp: 3 }).notNull().defaultNow().onUpdateNow()
@@ -53,11 +55,28 @@ export const machines = mysqlTable('machines', {
   spoilboardMinMm: double('spoilboard_min_mm').notNull(),
   accelMmS2: double('accel_mm_s2').notNull().default(500),
   rapidMmMin: double('rapid_mm_min').notNull().default(5000),
+  // How the control reads G4 P: seconds as NIST RS274/NGC (NISTIR 6556), or milliseconds.
+  dwellUnit: mysqlEnum('dwell_unit', DWELL_UNITS).notNull().default('seconds'),
   notes: text('notes'),
   retiredAt: timestamp('retired_at', { fsp: 3 }),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 }, t => [index('machines_shop_idx').on(t.shopId)])
+
+// The shop's cutters, picked by the Planner and Feeds. Sizes in millimetres.
+export const tools = mysqlTable('tools', {
+  id: int('id').autoincrement().primaryKey(),
+  shopId: int('shop_id').notNull().references(() => shops.id),
+  name: varchar('name', { length: 80 }).notNull(),
+  kind: mysqlEnum('kind', TOOL_KINDS).notNull(),
+  diameterMm: double('diameter_mm').notNull(),
+  flutes: int('flutes').notNull(),
+  cornerRadiusMm: double('corner_radius_mm').notNull().default(0),
+  maxRpm: int('max_rpm').notNull(),
+  notes: varchar('notes', { length: 500 }),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+}, t => [index('tools_shop_idx').on(t.shopId)])
 
 export const procedures = mysqlTable('procedures', {
   id: int('id').autoincrement().primaryKey(),

@@ -29,6 +29,15 @@ export const DEMO_MACHINES = [
   },
 ] as const
 
+// Cutters of the demo shop: invented names and ratings, not any maker's catalogue.
+export const DEMO_TOOLS = [
+  { name: 'Facing cutter 25 mm, 3 inserts', kind: 'surfacing', diameterMm: 25.4, flutes: 3, cornerRadiusMm: 0, maxRpm: 18000, notes: 'For the spoilboard and slab flattening.' },
+  { name: 'Facing cutter 50 mm, 2 inserts', kind: 'surfacing', diameterMm: 50.8, flutes: 2, cornerRadiusMm: 0.5, maxRpm: 12000, notes: 'Big Table only: too heavy for the trim router.' },
+  { name: 'Straight bit 1/4 in', kind: 'straight', diameterMm: 6.35, flutes: 2, cornerRadiusMm: 0, maxRpm: 24000, notes: null },
+  { name: 'Compression bit 6 mm', kind: 'compression', diameterMm: 6, flutes: 2, cornerRadiusMm: 0, maxRpm: 24000, notes: 'Sheet goods with two good faces.' },
+  { name: 'V-bit 60°', kind: 'v-bit', diameterMm: 12.7, flutes: 2, cornerRadiusMm: 0, maxRpm: 24000, notes: 'Also for setting X/Y work zero.' },
+] as const
+
 // Maintenance intervals of the demo shop (machine: index into DEMO_MACHINES, null = every machine).
 export const DEMO_INTERVALS = [
   { slug: 'spoilboard-resurfacing', machine: 0, everyDays: 30, everySpindleHours: 80 },
@@ -59,6 +68,7 @@ export async function seedDemoShopIfEmpty(password: string) {
       const [{ id }] = await tx.insert(tables.machines).values({ ...m, shopId }).$returningId() as [{ id: number }]
       machineIds.push(id)
     }
+    for (const t of DEMO_TOOLS) await tx.insert(tables.tools).values({ ...t, shopId })
     await installStarterLibrary(tx, shopId, ownerId)
     // A few maintenance intervals, so the due list and the Floor tiles show something due.
     const procs = await tx.select({ id: tables.procedures.id, slug: tables.procedures.slug }).from(tables.procedures).where(eq(tables.procedures.shopId, shopId))

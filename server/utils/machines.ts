@@ -15,6 +15,7 @@ export const machineColumns = {
   spoilboardMinMm: tables.machines.spoilboardMinMm,
   accelMmS2: tables.machines.accelMmS2,
   rapidMmMin: tables.machines.rapidMmMin,
+  dwellUnit: tables.machines.dwellUnit,
   notes: tables.machines.notes,
   retiredAt: tables.machines.retiredAt,
   updatedAt: tables.machines.updatedAt,

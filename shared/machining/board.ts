@@ -8,6 +8,7 @@
 import { z } from 'zod'
 import { toIssues, type Checked, type FieldIssue } from './issues'
 import { fitPlaneOrthogonal, fitPlaneVertical, type VerticalPlane } from './linalg'
+import { minimumZoneFlatness } from './minimum-zone'
 import type { LengthUnit } from './units'
 
 export const BOARD_GRID_MIN = 2
@@ -100,6 +101,8 @@ export interface BoardAnalysis {
   flatness: {
     /** Peak-to-valley of vertical residuals about the least-squares plane (not minimum zone). */
     aboutPlane: number
+    /** Minimum-zone flatness (ISO 1101 default, Chebyshev plane; see minimum-zone.ts); never more than aboutPlane. */
+    minimumZone: number
     /** Peak-to-valley of perpendicular distances about the orthogonal least-squares plane. */
     aboutPlaneOrthogonal: number
     /** max − min of the readings: flatness against the machine's XY motion. */
@@ -138,8 +141,17 @@ export function analyzeBoard(input: unknown): Checked<'analysis', BoardAnalysis>
   const ys = v.xs && v.ys ? v.ys : Array.from({ length: rows }, (_, r) => r * v.spacing!.y)
   const points = grid.flatMap((row, r) => row.map((z, c) => ({ x: xs[c]!, y: ys[r]!, z })))
 
-  const { residuals: flatResiduals, ...plane } = fitPlaneVertical(points)
-  const orthogonal = fitPlaneOrthogonal(points)
+  // A grid whose positions collapse (spacing 1e-200) has no plane: say so on the field.
+  let fits
+  try {
+    fits = { vertical: fitPlaneVertical(points), orthogonal: fitPlaneOrthogonal(points), minimumZone: minimumZoneFlatness(points) }
+  }
+  catch (error) {
+    if (!(error instanceof RangeError)) throw error
+    return { ok: false, issues: [{ path: v.spacing ? 'spacing' : 'xs', message: `No plane fits these readings: ${error.message}` }] }
+  }
+  const { residuals: flatResiduals, ...plane } = fits.vertical
+  const orthogonal = fits.orthogonal
   const residuals = grid.map((row, r) => row.map((_, c) => flatResiduals[r * cols + c]!))
   const range = (list: number[]) => Math.max(...list) - Math.min(...list)
 
@@ -189,6 +201,7 @@ export function analyzeBoard(input: unknown): Checked<'analysis', BoardAnalysis>
       residuals,
       flatness: {
         aboutPlane: range(flatResiduals),
+        minimumZone: fits.minimumZone,
         aboutPlaneOrthogonal: range(orthogonal.distances),
         aboutMachineXY: highest.value - lowest.value,
       },

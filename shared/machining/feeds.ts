@@ -57,6 +57,12 @@ export function materialRemovalRate(widthOfCut: number, depthOfCut: number, feed
   return widthOfCut * depthOfCut * feed
 }
 
+/** Sensible limits of the Feeds screen, in mm, mm/min and rpm (10 rpm still admits slow milling-cutter examples). */
+export const FEEDS_LIMITS_MM = {
+  minDiameter: 0.1, maxDiameter: 150, minRpm: 10, maxRpm: 60_000, minChipLoad: 0.0005, maxChipLoad: 5,
+  minFeed: 1, maxFeed: 100_000, minCut: 0.001, maxDepth: 100,
+} as const
+
 const positive = (label: string) => z
   .number({ error: `${label} must be a number.` })
   .refine(Number.isFinite, { error: `${label} must be a finite number.` })
@@ -77,6 +83,24 @@ export const FeedsInputSchema = z.object({
   widthOfCut: positive('Width of cut').optional(),
   depthOfCut: positive('Depth of cut').optional(),
 }).superRefine((input, ctx) => {
+  // Bounds in mm (mm/min, m/min), converted for inch input. Common practice, no published
+  // source: outside them a value is a typing mistake, not router work.
+  const inch = input.units === 'in'
+  const len = (mm: number) => inch ? mm / 25.4 : mm
+  const u = inch ? 'in' : 'mm'
+  const show = (v: number) => String(+v.toPrecision(4))
+  const bound = (path: keyof typeof input, label: string, value: number | undefined, min: number, max: number, unit: string) => {
+    if (value === undefined || !Number.isFinite(value) || value <= 0) return
+    if (value < min * (1 - 1e-12)) ctx.addIssue({ code: 'custom', path: [path], message: `${label} must be at least ${show(min)} ${unit}.` })
+    else if (value > max * (1 + 1e-12)) ctx.addIssue({ code: 'custom', path: [path], message: `${label} must be at most ${show(max)} ${unit}.` })
+  }
+  bound('diameter', 'Cutter diameter', input.diameter, len(FEEDS_LIMITS_MM.minDiameter), len(FEEDS_LIMITS_MM.maxDiameter), u)
+  bound('rpm', 'Spindle speed', input.rpm, FEEDS_LIMITS_MM.minRpm, FEEDS_LIMITS_MM.maxRpm, 'rpm')
+  bound('surfaceSpeed', 'Surface speed', input.surfaceSpeed, inch ? 1 : 0.3, inch ? 16_000 : 5_000, inch ? 'SFM' : 'm/min')
+  bound('chipLoad', 'Chip load', input.chipLoad, len(FEEDS_LIMITS_MM.minChipLoad), len(FEEDS_LIMITS_MM.maxChipLoad), u)
+  bound('feed', 'Feed', input.feed, len(FEEDS_LIMITS_MM.minFeed), len(FEEDS_LIMITS_MM.maxFeed), `${u}/min`)
+  bound('widthOfCut', 'Width of cut', input.widthOfCut, len(FEEDS_LIMITS_MM.minCut), len(FEEDS_LIMITS_MM.maxDiameter), u)
+  bound('depthOfCut', 'Depth of cut', input.depthOfCut, len(FEEDS_LIMITS_MM.minCut), len(FEEDS_LIMITS_MM.maxDepth), u)
   if ((input.rpm === undefined) === (input.surfaceSpeed === undefined)) {
     ctx.addIssue({ code: 'custom', path: ['rpm'], message: 'Give either the spindle speed or the surface speed, not both or neither.' })
   }

@@ -10,18 +10,34 @@ import { fromMm, formatLength, type LengthUnit } from './units'
  */
 export const MAX_DEPTH_PER_PASS_FRACTION = 0.5
 
-/** Sanity limits in millimetres: larger values are typing mistakes, not router work. */
+/**
+ * Sanity limits in millimetres: values outside them are typing mistakes, not router work.
+ * The lower limits are common practice, no published source: an area under 1 mm or a cutter
+ * under 0.5 mm is not a facing job, and a safe Z under 0.5 mm does not clear a board.
+ */
 export const PLANNER_LIMITS_MM = {
   area: 10_000,
+  minArea: 1,
   cutterDiameter: 150,
+  minCutterDiameter: 0.5,
   overhang: 1_000,
   totalDepth: 100,
   safeZ: 200,
+  minSafeZ: 0.5,
   feed: 100_000,
   minFeed: 1,
 } as const
+/**
+ * The thinnest cut a pass may take, in mm. Common practice, no published source: a paper-feeler
+ * Z zero is itself uncertain by a few hundredths of a millimetre, so a thinner step is not a
+ * cut, and at the program's 0.001 mm resolution it could print as Z0.000 (a full pass in air).
+ */
+export const MIN_CUT_MM = 0.01
+export const MIN_RPM = 1_000
 export const MAX_RPM = 60_000
-export const MAX_WARMUP_SECONDS = 3_600
+/** A spin-up dwell is seconds, not the minutes-long warm-up of the start-up procedure. */
+export const MAX_SPIN_UP_SECONDS = 120
+export const MIN_STEPOVER_PCT = 1
 export const MAX_LINES_PER_PASS = 20_000
 export const MAX_PASSES = 500
 export const MAX_TOTAL_LINES = 100_000
@@ -46,8 +62,16 @@ export const SurfacingInputSchema = z.object({
       .int({ error: 'Flutes must be a whole number.' })
       .min(1, { error: 'A cutter has at least 1 flute.' })
       .max(16, { error: 'More than 16 flutes is not a router cutter.' }),
+    // From the shop's cutter list: a spindle speed above it is a WARNING on the plan.
+    name: z.string({ error: 'Cutter name must be text.' }).trim().max(80, { error: 'Keep the cutter name under 80 characters.' }).optional(),
+    maxRpm: number('Cutter maximum speed').int({ error: 'Cutter maximum speed must be a whole number of rpm.' })
+      .min(MIN_RPM, { error: `Cutter maximum speed must be at least ${MIN_RPM} rpm.` })
+      .max(MAX_RPM, { error: `Cutter maximum speed cannot be more than ${MAX_RPM} rpm.` }).optional(),
   }, { error: 'Give the cutter\'s diameter and number of flutes.' }).strict(),
+  toolId: number('Cutter id').int({ error: 'Cutter id must be a whole number.' })
+    .positive({ error: 'Cutter id must be more than 0.' }).optional(),
   stepoverPct: positive('Stepover')
+    .min(MIN_STEPOVER_PCT, { error: `Stepover must be at least ${MIN_STEPOVER_PCT} % of the cutter diameter.` })
     .max(100, { error: 'Stepover cannot be more than 100 % of the cutter diameter, or strips between lines stay uncut.' }),
   overhang: number('Overhang')
     .min(0, { error: 'Overhang cannot be negative: the cutter centre must reach every edge of the area.' })
@@ -60,14 +84,17 @@ export const SurfacingInputSchema = z.object({
   feed: positive('Feed'),
   plunge: positive('Plunge rate'),
   rpm: positive('Spindle speed')
-    .min(1, { error: 'Spindle speed must be at least 1 rpm.' })
+    .min(MIN_RPM, { error: `Spindle speed must be at least ${MIN_RPM} rpm.` })
     .max(MAX_RPM, { error: `Spindle speed cannot be more than ${MAX_RPM} rpm.` }),
   direction: z.enum(['x', 'y'], { error: 'Direction must be \'x\' (lines along X) or \'y\' (lines along Y).' }),
   pattern: z.enum(['zigzag', 'one-way'], { error: 'Pattern must be \'zigzag\' or \'one-way\'.' }),
+  // One-way only: zigzag alternates climb and conventional by its nature.
+  milling: z.enum(['climb', 'conventional'], { error: 'Milling must be \'climb\' or \'conventional\'.' }).optional(),
   safeZ: positive('Safe Z'),
-  warmupSeconds: number('Warm-up time')
-    .min(0, { error: 'Warm-up time cannot be negative.' })
-    .max(MAX_WARMUP_SECONDS, { error: `Warm-up time cannot be more than ${MAX_WARMUP_SECONDS} s.` })
+  // Seconds the spindle gets to reach speed after M3 (G4 P), not the start-up warm-up.
+  spinUpSeconds: number('Spin-up dwell')
+    .min(0, { error: 'Spin-up dwell cannot be negative.' })
+    .max(MAX_SPIN_UP_SECONDS, { error: `Spin-up dwell cannot be more than ${MAX_SPIN_UP_SECONDS} s; the spindle warm-up belongs to the start-up procedure.` })
     .optional(),
   machineId: number('Machine id').int({ error: 'Machine id must be a whole number.' })
     .positive({ error: 'Machine id must be more than 0.' }).optional(),
@@ -79,18 +106,30 @@ export const SurfacingInputSchema = z.object({
   const u: LengthUnit = v.units
   const limit = (mm: number) => fromMm(mm, u)
   const show = (value: number) => formatLength(value, u)
+  // Thin cuts need more decimals than sizes: 0.005 mm is not "0.01 mm".
+  const showFine = (value: number) => formatLength(value, u, u === 'mm' ? 3 : 4)
   const add = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message })
   const L = PLANNER_LIMITS_MM
   // Field checks above do not stop this refinement; only judge values that passed them.
   const fine = (n: number | undefined) => n !== undefined && Number.isFinite(n) && n > 0
 
+  const below = (value: number, mm: number) => fine(value) && value < limit(mm) * (1 - 1e-12)
   for (const axis of ['x', 'y'] as const) {
     if (v.area[axis] > limit(L.area) * (1 + 1e-12)) add(['area', axis], `Area ${axis.toUpperCase()} of ${show(v.area[axis])} is larger than any router bed (at most ${show(limit(L.area))}).`)
+    else if (below(v.area[axis], L.minArea)) add(['area', axis], `Area ${axis.toUpperCase()} of ${show(v.area[axis])} is too small to face (at least ${show(limit(L.minArea))}).`)
   }
   if (v.cutter.diameter > limit(L.cutterDiameter)) add(['cutter', 'diameter'], `Cutter diameter of ${show(v.cutter.diameter)} is larger than any router surfacing cutter (at most ${show(limit(L.cutterDiameter))}).`)
+  else if (below(v.cutter.diameter, L.minCutterDiameter)) add(['cutter', 'diameter'], `Cutter diameter of ${show(v.cutter.diameter)} is too small for facing (at least ${show(limit(L.minCutterDiameter))}).`)
   if (v.overhang !== undefined && v.overhang > limit(L.overhang)) add(['overhang'], `Overhang of ${show(v.overhang)} is more than ${show(limit(L.overhang))}.`)
   if (v.totalDepth > limit(L.totalDepth)) add(['totalDepth'], `Total depth of ${show(v.totalDepth)} is more than ${show(limit(L.totalDepth))}.`)
+  else if (below(v.totalDepth, MIN_CUT_MM)) add(['totalDepth'], `Total depth of ${showFine(v.totalDepth)} is too thin to cut (at least ${showFine(limit(MIN_CUT_MM))}).`)
+  if (below(v.depthPerPass, MIN_CUT_MM)) add(['depthPerPass'], `Depth per pass of ${showFine(v.depthPerPass)} is too thin to cut (at least ${showFine(limit(MIN_CUT_MM))}).`)
+  if (v.finishingPass && below(v.finishingPass.depth, MIN_CUT_MM)) add(['finishingPass', 'depth'], `Finishing depth of ${showFine(v.finishingPass.depth)} is too thin to cut (at least ${showFine(limit(MIN_CUT_MM))}).`)
   if (v.safeZ > limit(L.safeZ)) add(['safeZ'], `Safe Z of ${show(v.safeZ)} is more than ${show(limit(L.safeZ))} above the surface.`)
+  else if (below(v.safeZ, L.minSafeZ)) add(['safeZ'], `Safe Z of ${show(v.safeZ)} does not clear the board (at least ${show(limit(L.minSafeZ))} above the surface).`)
+  if (v.milling !== undefined && v.pattern === 'zigzag') {
+    add(['milling'], 'Zigzag alternates climb and conventional from line to line; choose one-way to cut every line the same way.')
+  }
   for (const key of ['feed', 'plunge'] as const) {
     const label = key === 'feed' ? 'Feed' : 'Plunge rate'
     if (!fine(v[key])) continue
@@ -104,11 +143,19 @@ export const SurfacingInputSchema = z.object({
     add(['depthPerPass'], `Depth per pass of ${show(v.depthPerPass)} is more than half the cutter diameter (${show(maxDepth)}), too deep for one pass.`)
   }
   if (v.finishingPass && fine(v.finishingPass.depth) && fine(v.totalDepth)) {
+    const remainder = v.totalDepth - v.finishingPass.depth
     if (v.finishingPass.depth >= v.totalDepth) {
       add(['finishingPass', 'depth'], `Finishing depth of ${show(v.finishingPass.depth)} must be less than the total depth of ${show(v.totalDepth)}.`)
     }
+    else if (fine(v.depthPerPass) && v.finishingPass.depth > v.depthPerPass * (1 + 1e-12)) {
+      add(['finishingPass', 'depth'], `Finishing depth of ${show(v.finishingPass.depth)} is deeper than the depth per pass of ${show(v.depthPerPass)}; a finishing pass is the lightest cut.`)
+    }
     else if (v.finishingPass.depth > maxDepth * (1 + 1e-12)) {
       add(['finishingPass', 'depth'], `Finishing depth of ${show(v.finishingPass.depth)} is more than half the cutter diameter (${show(maxDepth)}).`)
+    }
+    else if (remainder < limit(MIN_CUT_MM) * (1 - 1e-9)) {
+      // Refused rather than merged: the person chose a finishing pass, so they say which depth wins.
+      add(['finishingPass', 'depth'], `Finishing depth of ${formatLength(v.finishingPass.depth, u, u === 'mm' ? 4 : 5)} leaves only ${formatLength(remainder, u, u === 'mm' ? 4 : 5)} for roughing, too thin to cut (at least ${showFine(limit(MIN_CUT_MM))}); turn the finishing pass off or make it at most ${showFine(v.totalDepth - limit(MIN_CUT_MM))}.`)
     }
   }
 
@@ -130,6 +177,13 @@ export const SurfacingInputSchema = z.object({
     add(['depthPerPass'], `The plan would cut ${lines * passes} raster lines in all (at most ${MAX_TOTAL_LINES}); use fewer passes or a larger stepover.`)
   }
 })
+
+/** A stored plan's input in today's field names: `warmupSeconds` was renamed `spinUpSeconds`. */
+export function upgradeStoredInput(input: unknown): unknown {
+  if (!input || typeof input !== 'object' || !('warmupSeconds' in input)) return input
+  const { warmupSeconds, ...rest } = input as Record<string, unknown>
+  return 'spinUpSeconds' in rest ? rest : { ...rest, spinUpSeconds: warmupSeconds }
+}
 
 export type SurfacingInput = z.input<typeof SurfacingInputSchema>
 export type SurfacingRequest = z.output<typeof SurfacingInputSchema>

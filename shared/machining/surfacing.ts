@@ -12,6 +12,13 @@
 //   one diameter apart, so every point of the area is within the cutter radius of a cut.
 // - Zigzag joins lines with cutting stepovers and turns each later pass back over the board
 //   from where the last one ended; one-way retracts to safe Z and returns for every line.
+// - Climb or conventional (one-way): with M3 the spindle turns clockwise seen from above, so a
+//   line is climb-milled when the uncut stock lies to the right of the direction of travel
+//   (climb or down milling: each tooth enters the stock at full chip thickness and leaves it at
+//   none, its edge moving with the work's motion relative to the cutter; the definition of
+//   down milling in Machinery's Handbook, milling practice, from memory).
+//   Lines are cut in ascending order across, so the stock is on the + side of each line:
+//   along X that is left of +X travel (conventional), along Y right of +Y travel (climb).
 import { toIssues, type Checked, type FieldIssue } from './issues'
 import { moveSeconds, DEFAULT_ACCEL_MM_S2, DEFAULT_RAPID_MM_MIN } from './motion'
 import { ceilWithTolerance, SurfacingInputSchema, type SurfacingRequest } from './surfacing-input'
@@ -39,7 +46,21 @@ export interface SurfacingPass {
   finishing: boolean
 }
 
+export type Milling = 'climb' | 'conventional'
+/** How this machine's control reads the P word of G4 (NISTIR 6556 says seconds). */
+export type DwellUnit = 'seconds' | 'milliseconds'
+export const DWELL_UNITS = ['seconds', 'milliseconds'] as const
+/**
+ * Default for one-way when none is chosen. Common practice, no published source: on belt- and
+ * rack-driven routers with backlash, climb milling can pull the cutter forward into the work.
+ */
+export const DEFAULT_MILLING: Milling = 'conventional'
+
+export interface PlanWarning { path: string, signal: 'WARNING' | 'CAUTION', message: string }
+
 export interface SurfacingOptions {
+  /** How the machine's control reads G4 P (default seconds, as NISTIR 6556). */
+  dwellUnit?: DwellUnit
   /** Machine acceleration, mm/s² (default 500). */
   accelMmS2?: number
   /** Rapid traverse rate, mm/min (default 5000). */
@@ -64,13 +85,15 @@ export interface SurfacingPlan {
   /** Where every raster line starts and ends on the raster axis. */
   lineSpan: { from: number, to: number }
   passes: SurfacingPass[]
+  /** One-way cuts every line the same way; zigzag alternates from line to line. */
+  milling: Milling | 'alternating'
   moves: SurfacingMove[]
   /** Rectangle the cutter centre visits, and the one its full width sweeps. */
   centreBounds: Bounds
   sweptBounds: Bounds
   /** Path lengths in plan units: cutting = raster lines + zigzag stepovers; rapid includes retracts. */
   lengths: { cutting: number, plunge: number, rapid: number, total: number }
-  /** Seconds; movement under the trapezoidal profile, plus the warm-up dwell. */
+  /** Seconds; movement under the trapezoidal profile, plus the spin-up dwell after M3. */
   time: { cutting: number, plunge: number, rapid: number, dwell: number, total: number }
   /** Material removed from the area itself (the overhang cuts air), in units³. */
   removedVolume: number
@@ -78,7 +101,9 @@ export interface SurfacingPlan {
   chipLoad: number
   surfaceSpeed: number
   surfaceSpeedUnit: SurfaceSpeedUnit
-  settings: { accelMmS2: number, rapidMmMin: number }
+  settings: { accelMmS2: number, rapidMmMin: number, dwellUnit: DwellUnit }
+  /** Hazards found in the input that do not stop the plan (e.g. spindle above the cutter's maximum). */
+  warnings: PlanWarning[]
   /** Present when options.machine was given. */
   travel?: TravelReport
 }
@@ -109,6 +134,9 @@ function validateOptions(options: SurfacingOptions): FieldIssue[] {
   }
   check('accelMmS2', 'Machine acceleration')
   check('rapidMmMin', 'Rapid rate')
+  if (options.dwellUnit !== undefined && !DWELL_UNITS.includes(options.dwellUnit)) {
+    issues.push({ path: 'options.dwellUnit', message: 'Dwell unit must be \'seconds\' or \'milliseconds\'.' })
+  }
   return issues
 }
 
@@ -134,6 +162,7 @@ export function planSurfacing(input: unknown, options: SurfacingOptions = {}): C
     i === lineCount - 1 ? v.area[stepAxis] + overhang : i * actual - overhang)
   const lineSpan = { from: 0 - overhang, to: v.area[rasterAxis] + overhang }
   const passes = passLevels(v)
+  const milling = v.pattern === 'zigzag' ? 'alternating' : (v.milling ?? DEFAULT_MILLING)
 
   const moves: SurfacingMove[] = []
   const at = { along: 0, across: 0, z: 0 }
@@ -159,19 +188,22 @@ export function planSurfacing(input: unknown, options: SurfacingOptions = {}): C
     })
   }
   else {
+    // See the climb rule at the top: cutting towards +along is climb only along Y.
+    const forward = (milling === 'climb') === (rasterAxis === 'y')
+    const [start, end] = forward ? [lineSpan.from, lineSpan.to] : [lineSpan.to, lineSpan.from]
     passes.forEach((pass, p) => {
       for (const across of linePositions) {
         if (at.z < v.safeZ) push('retract', at.along, at.across, v.safeZ, p)
-        push('rapid', lineSpan.from, across, v.safeZ, p)
-        push('plunge', lineSpan.from, across, pass.z, p)
-        push('cut', lineSpan.to, across, pass.z, p)
+        push('rapid', start, across, v.safeZ, p)
+        push('plunge', start, across, pass.z, p)
+        push('cut', end, across, pass.z, p)
       }
     })
   }
   push('retract', at.along, at.across, v.safeZ, passes.length - 1)
 
   const lengths = { cutting: 0, plunge: 0, rapid: 0, total: 0 }
-  const time = { cutting: 0, plunge: 0, rapid: 0, dwell: v.warmupSeconds ?? 0, total: 0 }
+  const time = { cutting: 0, plunge: 0, rapid: 0, dwell: v.spinUpSeconds ?? 0, total: 0 }
   const feedMm = toMm(v.feed, v.units)
   const plungeMm = toMm(v.plunge, v.units)
   let prev = { x: 0, y: 0, z: 0 }
@@ -219,6 +251,7 @@ export function planSurfacing(input: unknown, options: SurfacingOptions = {}): C
     linePositions,
     lineSpan,
     passes,
+    milling,
     moves,
     centreBounds,
     sweptBounds,
@@ -228,7 +261,12 @@ export function planSurfacing(input: unknown, options: SurfacingOptions = {}): C
     chipLoad: chipLoadFromFeed(v.feed, v.cutter.flutes, v.rpm),
     surfaceSpeed: surfaceSpeedFromRpm(v.rpm, v.cutter.diameter, v.units),
     surfaceSpeedUnit: surfaceSpeedUnitFor(v.units),
-    settings: { accelMmS2, rapidMmMin },
+    settings: { accelMmS2, rapidMmMin, dwellUnit: options.dwellUnit ?? 'seconds' },
+    warnings: [],
+  }
+  if (v.cutter.maxRpm !== undefined && v.rpm > v.cutter.maxRpm) {
+    const name = v.cutter.name ? ` (${v.cutter.name})` : ''
+    plan.warnings.push({ path: 'rpm', signal: 'WARNING', message: `Spindle speed ${Math.round(v.rpm)} rpm is above the cutter's maximum of ${v.cutter.maxRpm} rpm${name}. A cutter run past its rated speed can break apart or throw its inserts.` })
   }
   if (options.machine) {
     const travel = checkTravel(plan, options.machine)
@@ -256,6 +294,8 @@ export function summarizeSurfacing(plan: SurfacingPlan) {
     surfaceSpeed: plan.surfaceSpeed,
     surfaceSpeedUnit: plan.surfaceSpeedUnit,
     totalDepth: plan.input.totalDepth,
+    milling: plan.milling,
+    warnings: plan.warnings.map(w => `${w.signal}: ${w.message}`),
   }
 }
 export type SurfacingSummary = ReturnType<typeof summarizeSurfacing>

@@ -35,11 +35,11 @@ const isolatePower = (key = 'isolate-power', needsTrainerSignoff = true): Proced
   key,
   kind: 'hold',
   title: 'Isolate the power before you unplug anything',
-  body: 'Switch the machine off at its main isolator. Lock and tag it with your own lock. Then prove that nothing can start.',
-  guidance: 'Cables for the spindle, drives and sensor must never be unplugged live. A drive can hold a charge for a while after switch-off, and a spindle keeps turning as it runs down. Your own lock means nobody else can switch the machine back on while your hands are on it. If the machine is plugged into a socket, unplugging it is enough only while the plug stays in your hand or in sight.',
+  body: 'Switch the machine off at its main isolator. Lock and tag it with your own lock. Then prove that nothing can start, and put the start control back to off.',
+  guidance: 'Cables for the spindle, drives and sensor must never be unplugged live. A drive holds a charge after switch-off: dark drive lights do not prove it has discharged, so wait the time the drive\'s manual gives. A spindle keeps turning as it runs down. Your own lock means nobody else can switch the machine back on while your hands are on it. If the machine is plugged into a socket, unplugging it is enough only while the plug stays under your own control, in your hand or in sight, where nobody else can plug it back in.',
   signalWord: 'WARNING',
   hazard: 'Unplugging a cable with power on can give an electric shock or start the machine without warning. A drive can hold stored energy after switch-off, and a spindle keeps turning as it slows down.',
-  avoid: 'Switch off at the main isolator and fit your own lock and tag. Wait until the spindle has stopped and the drive lights are out. Press the start control to prove nothing moves. If the machine has a plug, pull it and keep it where you can see it.',
+  avoid: 'Switch off at the main isolator and fit your own lock and tag. Wait until the spindle has stopped, and wait the discharge time the drive\'s manual gives: drive lights going out is not proof. Press the start control to prove nothing moves, then return the control to off. If the machine has a plug, pull it and keep it under your own control, where only you can plug it back in.',
   needsTrainerSignoff,
 })
 
@@ -91,6 +91,18 @@ const sharpEdges = (key = 'sharp-edges'): ProcedureStepInput => ({
   needsTrainerSignoff: false,
 })
 
+const cutterRating = (key = 'cutter-rating'): ProcedureStepInput => ({
+  key,
+  kind: 'hold',
+  title: 'Check the cutter\'s speed rating and its inserts',
+  body: 'Find the maximum speed marked on the surfacing cutter or its sheet. The planned spindle speed must not be above it. Check every insert screw is tight.',
+  guidance: 'Large surfacing cutters are often rated well below a spindle\'s top speed. The Planner warns when the speed is above the maximum of a cutter from the shop\'s list. Tighten insert screws with the maker\'s key only.',
+  signalWord: 'WARNING',
+  hazard: 'A cutter run above its rated speed, or with a loose insert screw, can break apart or throw an insert across the shop and cause serious injury.',
+  avoid: 'Keep the spindle speed at or below the cutter\'s marked maximum. Tighten every insert screw before the spindle starts. Replace chipped inserts and damaged screws.',
+  needsTrainerSignoff: false,
+})
+
 const finalSignoff = (statement: string): ProcedureStepInput => ({
   key: 'final-signoff',
   kind: 'signoff',
@@ -99,6 +111,15 @@ const finalSignoff = (statement: string): ProcedureStepInput => ({
   guidance: 'In a guided run your trainer checks the work with you and signs with their own PIN. Your signature and theirs go into the record.',
   statement,
 })
+
+/**
+ * The Planner's footer names the hazards of the library's 'protective-gear' and
+ * 'stay-with-machine' holds, so it carries their signal word (a test holds them together).
+ */
+export const PLANNER_SAFETY_LINE = {
+  signalWord: 'WARNING',
+  text: 'check the preview and the program and clear the bed; wear eye, hearing and dust protection; stay at the machine while it cuts. A thrown cutter or a dust fire can seriously injure.',
+} as const
 
 export const STARTER_LIBRARY: readonly StarterProcedure[] = [
   {
@@ -129,7 +150,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         key: 'restore-power',
         kind: 'instruction',
         title: 'Restore power',
-        body: 'Check the bed is clear and nobody is at the machine. Remove your own lock and tag. Switch the machine on.',
+        body: 'Check the bed is clear and nobody is at the machine. Tell the people nearby that power is coming back. Remove your own lock and tag. Switch the machine on.',
         guidance: 'Only the person who fitted a lock takes it off. If the machine starts to move by itself when power returns, switch it off and tell your trainer.',
       },
       {
@@ -171,7 +192,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         key: 'xy-zero',
         kind: 'instruction',
         title: 'Set X and Y work zero with the V-bit',
-        body: 'Jog the V-bit tip down until it almost touches the board corner you use as the origin. Line the tip up with the corner in both directions. Set X and Y work zero. Raise Z.',
+        body: 'Keep the spindle off: your eyes and fingers are close to the tip. Jog the V-bit tip down until it almost touches the board corner you use as the origin. Line the tip up with the corner in both directions. Set X and Y work zero. Raise Z.',
         guidance: 'Use small jog steps for the last few millimetres. Look from the front and from the side. Setting the origin at the board corner lets the plan\'s overhang reach past every edge.',
       },
       spindleStopped('spindle-stopped-cutter'),
@@ -187,13 +208,13 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         kind: 'instruction',
         title: 'Pencil the corners',
         body: 'Scribble pencil marks near each corner and in the middle of the board. After facing, every mark must be gone.',
-        guidance: 'The marks are your proof of a full clean-up. A mark left in one corner usually means the board is lower there, or the spindle is out of tram.',
+        guidance: 'The marks are your proof of a full clean-up. A mark left in one area means the board is low there compared with the plane the machine\'s X and Y motion cuts; another shallow pass takes it out.',
       },
       {
         key: 'z-zero',
         kind: 'instruction',
         title: 'Set Z zero with a paper feeler',
-        body: 'Slide a sheet of paper under the cutter. Jog Z down in 1 mm steps, then 0.1 mm, then 0.01 mm. Stop when the cutter just pins the paper. Set Z to the paper thickness, about 0.1 mm.',
+        body: 'Keep the spindle off while your fingers are near the cutter. Slide a sheet of paper under the cutter. Jog Z down in 1 mm steps, then 0.1 mm, then 0.01 mm. Stop when the cutter just pins the paper. Set Z to the paper thickness, about 0.1 mm.',
         guidance: 'Shrinking the jog step as you get close stops you from driving the cutter into the board. The paper feeler is common shop practice. Ordinary 80 g/m² office paper is about 0.1 mm thick.',
       },
       {
@@ -222,6 +243,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         body: 'Compare the preview with the board. The path must cover every edge with some overhang. The depth must match your plan. No move may leave the machine\'s travel.',
         guidance: 'The preview is the last easy moment to catch a wrong unit, a wrong origin or a deep first pass.',
       },
+      cutterRating(),
       {
         key: 'coolant-notice',
         kind: 'hold',
@@ -260,7 +282,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         kind: 'instruction',
         title: 'Repeat a pass if marks remain',
         body: 'If any mark remains, lower Z zero by 0.1 to 0.2 mm and run the program again. Check the marks again. Skip this step if every mark is gone.',
-        guidance: 'Marks left only along one edge can point to a spindle out of tram. Tell your trainer if that happens twice.',
+        guidance: 'Marks left in one area mean the board is low there compared with the machine\'s XY plane. Small steps or ridges between neighbouring passes are different: they come from a spindle out of tram, tilted in the stepover direction. Run the tram check if you see them, and tell your trainer.',
       },
       {
         key: 'photo-board',
@@ -286,7 +308,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         key: 'reinstall-sensor',
         kind: 'instruction',
         title: 'Put the tool-length sensor back',
-        body: 'Put the sensor back in its place and plug in its cable. Refit any fences and clamps you need next. Remove your lock and tag, then restore power.',
+        body: 'Put the sensor back in its place and plug in its cable. Refit any fences and clamps you need next. Tell the people nearby that power is coming back, remove your lock and tag, then restore power.',
         guidance: 'Plug the sensor in only with the power isolated, as you unplugged it.',
       },
       {
@@ -374,14 +396,14 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         key: 'xy-zero',
         kind: 'instruction',
         title: 'Set X and Y work zero',
-        body: 'Jog the cutter over the corner of the stock you use as the origin. Set X and Y work zero there.',
+        body: 'Keep the spindle off. Jog the cutter over the corner of the stock you use as the origin. Set X and Y work zero there.',
         guidance: 'The plan adds an overhang around the stock. The origin only needs to be close, not exact.',
       },
       {
         key: 'z-zero',
         kind: 'instruction',
         title: 'Set Z zero on the highest point',
-        body: 'Move the cutter over the highest point. Slide paper under it. Jog down in 1 mm, 0.1 mm and 0.01 mm steps until the paper is pinned. Set Z to the paper thickness.',
+        body: 'Keep the spindle off while your fingers are near the cutter. Move the cutter over the highest point. Slide paper under it. Jog down in 1 mm, 0.1 mm and 0.01 mm steps until the paper is pinned. Set Z to the paper thickness.',
         guidance: 'Zeroing on the highest point means the first pass just skims it. Ordinary 80 g/m² office paper is about 0.1 mm thick.',
       },
       {
@@ -399,6 +421,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         body: 'Check the path covers the stock with overhang on every side. Check no clamp sits inside the path. Check the deepest pass stays above the spoilboard.',
         guidance: 'A deepest pass below the bottom of the stock cuts into the spoilboard.',
       },
+      cutterRating(),
       {
         key: 'start-extraction',
         kind: 'instruction',
@@ -802,7 +825,7 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         guidance: 'The test checks a safety system, so assume it might fail. Nobody should be where a failure could hurt them.',
         signalWord: 'WARNING',
         hazard: 'If a stop fails during the test, the spindle and gantry keep moving and can seriously injure anyone near the bed.',
-        avoid: 'Remove the cutter from the spindle. Clear the bed. Keep everyone outside the work area. Keep a second way to cut power within reach.',
+        avoid: 'Remove the cutter from the spindle, and do not tighten the collet nut on an empty collet: it crushes the collet. Run without a tool the way the spindle maker\'s manual says. Clear the bed. Keep everyone outside the work area. Keep a second way to cut power within reach.',
         needsTrainerSignoff: true,
       },
       protectiveGear(),
@@ -850,10 +873,10 @@ export const STARTER_LIBRARY: readonly StarterProcedure[] = [
         kind: 'hold',
         title: 'A failed stop takes the machine out of service',
         body: 'If any stop did not halt the machine, or anything restarted by itself, the machine must not be used.',
-        guidance: 'Add a note saying which stop failed and how. The owner arranges the repair.',
+        guidance: 'Add a note saying which stop failed and how. The owner arranges the repair: a stop circuit is repaired only by a qualified person, and an electrical fault only by a licensed electrician. Nobody at the machine tries to fix it.',
         signalWord: 'WARNING',
         hazard: 'A machine whose stop has failed cannot be stopped in an emergency and could seriously injure someone.',
-        avoid: 'Isolate the power, lock it, and tag the machine out of service. Tell the owner. Do not use it until it is repaired and tested again.',
+        avoid: 'Isolate the power, lock it, and tag the machine out of service. Tell the owner. Leave the repair to a qualified person, and electrical faults to a licensed electrician. Do not use the machine until it is repaired and this test passes again.',
         needsTrainerSignoff: false,
       },
       finalSignoff('Every emergency stop halted the spindle and axes, nothing restarted by itself, and the stopping time is recorded.'),

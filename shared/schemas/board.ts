@@ -8,6 +8,11 @@ export { BOARD_GRID_MAX, BOARD_GRID_MIN }
 
 /** Limits in mm: a height is a probe or feeler reading, a thickness an MDF board (as machine.ts). */
 const LIMITS_MM = { height: 500, thickness: 200, spacing: 5000, facedDepth: 25 } as const
+/**
+ * Smallest spacing and faced depth, in mm. Common practice, no published source: readings closer
+ * than 1 mm are one spot, and a facing thinner than 0.01 mm is within the Z zero's own error.
+ */
+const MIN_MM = { spacing: 1, facedDepth: 0.01 } as const
 /** The smallest depth a facing takes when the board is already flat (common practice, no published source). */
 export const MIN_FACING_MM = 0.25
 // A reading dated more than a day ahead comes from a wrong tablet clock (same rule as run events).
@@ -67,9 +72,13 @@ function checkRanges(v: Fields, ctx: z.RefinementCtx) {
   }))
   for (const axis of ['x', 'y'] as const) {
     if (v.spacing[axis] > LIMITS_MM.spacing * perMm) issue(['spacing', axis], `Spacing ${axis.toUpperCase()} must be at most ${shown(LIMITS_MM.spacing, v.units)}.`)
+    else if (v.spacing[axis] < MIN_MM.spacing * perMm * (1 - 1e-12)) issue(['spacing', axis], `Spacing ${axis.toUpperCase()} must be at least ${v.units === 'mm' ? '1 mm' : '0.04 in'}; readings closer than that are one spot.`)
   }
   if (v.facedDepth != null && v.facedDepth > LIMITS_MM.facedDepth * perMm) {
     issue(['facedDepth'], `Faced depth must be at most ${shown(LIMITS_MM.facedDepth, v.units)}; a facing takes a fraction of a millimetre.`)
+  }
+  else if (v.facedDepth != null && v.facedDepth < MIN_MM.facedDepth * perMm * (1 - 1e-12)) {
+    issue(['facedDepth'], `Faced depth must be at least ${v.units === 'mm' ? '0.01 mm' : '0.0004 in'}.`)
   }
   if (v.takenAt) {
     const t = Date.parse(v.takenAt)
@@ -111,7 +120,10 @@ export function readingToMm(v: ReadingBody, now = new Date()) {
 }
 
 export interface ReadingSummary {
+  /** Least squares: peak-to-valley about the least-squares plane. */
   flatnessAboutPlaneMm: number
+  /** Minimum zone (ISO 1101, Chebyshev plane): never more than the least-squares figure. */
+  flatnessMinimumZoneMm: number
   flatnessAboutXYMm: number
   cleanupDepthMm: number
   /** Mean thickness now: measured for thickness readings, estimated for heights. */
@@ -132,6 +144,23 @@ export interface BoardMachine { spoilboardNominalMm: number, spoilboardMinMm: nu
  * depth, but never less than MIN_FACING_MM, so a flat board still counts down.
  */
 export function analyzeReading(reading: StoredReading, machine: BoardMachine, meanThicknessMm?: number | null): BoardAnalysis | null {
+  const checked = checkReading(reading, machine, meanThicknessMm)
+  return checked.ok ? checked.analysis : null
+}
+
+/** As analyzeReading, but says why a stored reading cannot be analysed instead of throwing. */
+export function checkReading(reading: StoredReading, machine: BoardMachine, meanThicknessMm?: number | null): { ok: true, analysis: BoardAnalysis } | { ok: false, reason: string } {
+  try {
+    return analyzeStored(reading, machine, meanThicknessMm)
+  }
+  catch (error) {
+    // One odd stored row must never break the machine's whole history.
+    return { ok: false, reason: `This reading cannot be analysed: ${error instanceof Error ? error.message : String(error)}` }
+  }
+}
+
+function analyzeStored(reading: StoredReading, machine: BoardMachine, meanThicknessMm?: number | null): { ok: true, analysis: BoardAnalysis } | { ok: false, reason: string } {
+  if (!Array.isArray(reading.grid) || !reading.grid.every(Array.isArray)) return { ok: false, reason: 'This reading cannot be analysed: its grid is not a list of rows.' }
   const values = reading.grid.flat()
   const range = Math.max(...values) - Math.min(...values)
   const result = analyzeBoard({
@@ -142,12 +171,15 @@ export function analyzeReading(reading: StoredReading, machine: BoardMachine, me
     facingAllowance: Math.max(range, MIN_FACING_MM),
     ...(reading.kind === 'height' && meanThicknessMm && meanThicknessMm > 0 ? { nominalThickness: meanThicknessMm } : {}),
   })
-  return result.ok ? result.analysis : null
+  return result.ok
+    ? { ok: true, analysis: result.analysis }
+    : { ok: false, reason: `This reading cannot be analysed: ${result.issues.map(i => i.message).join(' ')}` }
 }
 
 function summaryOf(a: BoardAnalysis, estimated: boolean): ReadingSummary {
   return {
     flatnessAboutPlaneMm: a.flatness.aboutPlane,
+    flatnessMinimumZoneMm: a.flatness.minimumZone,
     flatnessAboutXYMm: a.flatness.aboutMachineXY,
     cleanupDepthMm: a.cleanupDepth,
     thicknessMeanMm: a.thicknessNow?.mean ?? null,
@@ -171,9 +203,16 @@ export function summarizeHistory<R extends StoredReading & { id: number }>(machi
   let anchor: number = machine.spoilboardNominalMm
   const out = oldestFirst.map((reading) => {
     if (reading.facedDepthMm) anchor -= reading.facedDepthMm
-    const analysis = analyzeReading(reading, machine, anchor)
+    const checked = checkReading(reading, machine, anchor)
+    const analysis = checked.ok ? checked.analysis : null
     if (analysis?.kind === 'thickness' && analysis.thicknessNow) anchor = analysis.thicknessNow.mean
-    return { ...reading, meanThicknessMm: reading.kind === 'height' ? anchor : null, summary: analysis ? summaryOf(analysis, reading.kind === 'height') : null }
+    return {
+      ...reading,
+      meanThicknessMm: reading.kind === 'height' ? anchor : null,
+      summary: analysis ? summaryOf(analysis, reading.kind === 'height') : null,
+      /** Why the summary is null: the history still answers with every other reading. */
+      problem: checked.ok ? null : checked.reason,
+    }
   })
   return out.reverse()
 }

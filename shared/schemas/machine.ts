@@ -1,15 +1,24 @@
 import { z } from 'zod'
 
 export const SPINDLE_KINDS = ['trim-router', 'air-spindle', 'water-spindle'] as const
+// How the control reads the P word of G4: seconds as NIST RS274/NGC (NISTIR 6556) says, or
+// milliseconds as some controls do.
+export const DWELL_UNITS = ['seconds', 'milliseconds'] as const
+export const DWELL_UNIT_LABELS: Record<typeof DWELL_UNITS[number], string> = {
+  seconds: 'G4 P in seconds (RS274/NGC)',
+  milliseconds: 'G4 P in milliseconds',
+}
+
 export const SPINDLE_LABELS: Record<typeof SPINDLE_KINDS[number], string> = {
   'trim-router': 'Trim router',
   'air-spindle': 'Air-cooled spindle',
   'water-spindle': 'Water-cooled spindle with chiller',
 }
 
-const mm = (label: string, max: number) => z.number({ error: `${label} must be a number.` })
+const mm = (label: string, max: number, min = 1) => z.number({ error: `${label} must be a number.` })
   .finite(`${label} must be a number.`)
   .positive(`${label} must be more than 0.`)
+  .min(min, `${label} must be at least ${min} mm.`)
   .max(max, `${label} must be at most ${max} mm.`)
 
 // Lengths are stored in millimetres; forms convert from the machine's preferred units first.
@@ -24,8 +33,10 @@ const base = z.object({
   spoilboardMaterial: z.string().trim().min(1, 'Enter the spoilboard material.').max(60, 'Keep the material under 60 characters.'),
   spoilboardNominalMm: mm('Nominal spoilboard thickness', 200),
   spoilboardMinMm: mm('Minimum spoilboard thickness', 200),
-  accelMmS2: z.number().finite().positive('Acceleration must be more than 0.').max(20_000, 'Acceleration must be at most 20000 mm/s².').optional(),
-  rapidMmMin: z.number().finite().positive('Rapid rate must be more than 0.').max(100_000, 'Rapid rate must be at most 100000 mm/min.').optional(),
+  // Lower limits are common practice, no published source: a router slower than these is a typing mistake.
+  accelMmS2: z.number({ error: 'Acceleration must be a number.' }).finite('Acceleration must be a number.').min(10, 'Acceleration must be at least 10 mm/s².').max(20_000, 'Acceleration must be at most 20000 mm/s².').optional(),
+  rapidMmMin: z.number({ error: 'Rapid rate must be a number.' }).finite('Rapid rate must be a number.').min(100, 'Rapid rate must be at least 100 mm/min.').max(100_000, 'Rapid rate must be at most 100000 mm/min.').optional(),
+  dwellUnit: z.enum(DWELL_UNITS, { error: 'Dwell unit must be \'seconds\' or \'milliseconds\'.' }).optional(),
   notes: z.string().max(2000, 'Keep notes under 2000 characters.').nullable().optional(),
 }).strict()
 

@@ -9,7 +9,7 @@ import { as, call, db, otherShop } from './client'
 const MM_PLAN = {
   units: 'mm', area: { x: 600, y: 400 }, cutter: { diameter: 25.4, flutes: 2 }, stepoverPct: 50,
   totalDepth: 1, depthPerPass: 0.5, feed: 2500, plunge: 500, rpm: 16000,
-  direction: 'x', pattern: 'zigzag', safeZ: 5, warmupSeconds: 5,
+  direction: 'x', pattern: 'zigzag', safeZ: 5, spinUpSeconds: 5,
 }
 const INCH_PLAN = {
   units: 'in', area: { x: 20, y: 20 }, cutter: { diameter: 1, flutes: 2 }, stepoverPct: 60,
@@ -129,5 +129,96 @@ describe('POST /api/plans/surfacing', () => {
 
   it('needs a session', async () => {
     expect((await call('POST', '/api/plans/surfacing', { body: MM_PLAN })).status).toBe(401)
+  })
+})
+
+const MACHINE = {
+  travelXMm: 800, travelYMm: 800, travelZMm: 100, units: 'mm', spindleKind: 'air-spindle', hasLengthSensor: true,
+  spoilboardMaterial: 'MDF', spoilboardNominalMm: 18, spoilboardMinMm: 12,
+}
+const issuesOf = (res: { body: any }) => res.body.data.issues as { path: string, message: string }[]
+
+describe('surfacing program order, passes, milling, dwell and cutters', () => {
+  it('lifts to safe Z and moves over the start point before the spindle starts', async () => {
+    const res = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: MM_PLAN })
+    const program = blocks(res.body.gcode)
+    const m3 = program.findIndex(l => /^S\d+ M3$/.test(l))
+    // G0 Z5 and G0 X0 Y0 after the modes, then M3 and the spin-up dwell, then the plunge.
+    expect(program.slice(m3 - 2, m3 + 3)).toEqual(['G0 Z5.000', 'G0 X0.000 Y0.000', 'S16000 M3', 'G4 P5', 'G1 Z-0.500 F500'])
+    expect(program.slice(0, m3 - 2).every(l => !/[XYZ]/.test(l))).toBe(true)
+  })
+
+  it('answers 400 on finishingPass.depth for a finishing pass deeper than a pass, or one that leaves too thin a roughing cut', async () => {
+    const before = await planCount()
+    const deeper = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: { ...MM_PLAN, totalDepth: 1, depthPerPass: 0.2, finishingPass: { depth: 0.5 } } })
+    expect(deeper.status).toBe(400)
+    expect(issuesOf(deeper)).toEqual([{ path: 'finishingPass.depth', message: expect.stringMatching(/deeper than the depth per pass of 0\.20 mm/) }])
+    const thin = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: { ...MM_PLAN, totalDepth: 0.5, depthPerPass: 0.5, finishingPass: { depth: 0.4999 } } })
+    expect(thin.status).toBe(400)
+    expect(issuesOf(thin)).toEqual([{ path: 'finishingPass.depth', message: expect.stringMatching(/leaves only 0\.0001 mm for roughing, too thin to cut/) }])
+    expect(thin.text).not.toContain('Z0.000')
+    expect(await planCount()).toBe(before)
+  })
+
+  it('cuts one-way climb or conventional as asked, and refuses a milling choice for zigzag', async () => {
+    const cookie = await as('operator')
+    // Lines along X: climb runs towards -X (stock at +Y is then right of travel), conventional towards +X.
+    for (const [milling, firstCut] of [['climb', 'G1 X0.000 F2500'], ['conventional', 'G1 X600.000 F2500']] as const) {
+      const res = await call('POST', '/api/plans/surfacing', { cookie, body: { ...MM_PLAN, pattern: 'one-way', milling } })
+      expect(res.status, res.text).toBe(201)
+      expect(res.body.plan.milling).toBe(milling)
+      expect(res.body.gcode).toContain(`(Milling ${milling} on every line`)
+      const program = blocks(res.body.gcode)
+      expect(program[program.findIndex(l => l.startsWith('G1 Z')) + 1]).toBe(firstCut)
+    }
+    const zigzag = await call('POST', '/api/plans/surfacing', { cookie, body: { ...MM_PLAN, milling: 'climb' } })
+    expect(zigzag.status).toBe(400)
+    expect(issuesOf(zigzag).map(i => i.path)).toEqual(['milling'])
+  })
+
+  it('writes G4 P in seconds or in milliseconds by the machine\'s setting, and the machine keeps it', async () => {
+    const owner = await as('owner')
+    const made = await call('POST', '/api/machines', { cookie: owner, body: { ...MACHINE, name: `Dwell Router ${Date.now()}`, dwellUnit: 'milliseconds' } })
+    expect(made.status, made.text).toBe(201)
+    expect(made.body.dwellUnit).toBe('milliseconds')
+    const plan = () => call('POST', '/api/plans/surfacing', { cookie: owner, body: { ...MM_PLAN, area: { x: 300, y: 300 }, machineId: made.body.id } })
+    const ms = await plan()
+    expect(blocks(ms.body.gcode)).toContain('G4 P5000')
+    expect(ms.body.gcode).toContain('written as G4 P in milliseconds')
+    const patched = await call('PATCH', `/api/machines/${made.body.id}`, { cookie: owner, body: { dwellUnit: 'seconds' } })
+    expect(patched.body.dwellUnit).toBe('seconds')
+    const s = await plan()
+    expect(blocks(s.body.gcode)).toContain('G4 P5')
+    expect(blocks(s.body.gcode)).not.toContain('G4 P5000')
+    const bad = await call('PATCH', `/api/machines/${made.body.id}`, { cookie: owner, body: { dwellUnit: 'minutes' } })
+    expect(bad.status).toBe(400)
+    expect(issuesOf(bad).map(i => i.path)).toEqual(['dwellUnit'])
+  })
+
+  it('takes the rated speed from the shop\'s cutter: above it is a WARNING in the answer and the program header', async () => {
+    const trainer = await as('trainer')
+    const tool = await call('POST', '/api/tools', { cookie: trainer, body: { name: `Plan test cutter ${Date.now()}`, kind: 'surfacing', diameterMm: 25.4, flutes: 2, cornerRadiusMm: 0, maxRpm: 12000 } })
+    expect(tool.status, tool.text).toBe(201)
+    // The body's own maxRpm is overruled by the shop's list.
+    const res = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: { ...MM_PLAN, toolId: tool.body.id, cutter: { diameter: 25.4, flutes: 2, maxRpm: 60000 } } })
+    expect(res.status, res.text).toBe(201)
+    expect(res.body.warnings).toEqual([{ path: 'rpm', signal: 'WARNING', message: expect.stringMatching(/^Spindle speed 16000 rpm is above the cutter's maximum of 12000 rpm/) }])
+    expect(res.body.gcode).toMatch(/\n\(WARNING: Spindle speed 16000 rpm is above the cutter's maximum of 12000 rpm/)
+    const slow = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: { ...MM_PLAN, rpm: 12000, toolId: tool.body.id } })
+    expect(slow.body.warnings).toEqual([])
+    expect(slow.body.gcode).not.toContain('WARNING')
+    const [theirs] = await db().query<any>('insert into tools (shop_id, name, kind, diameter_mm, flutes, max_rpm) values (?, ?, ?, ?, ?, ?)', [other.shopId, 'Other cutter', 'surfacing', 25.4, 2, 18000])
+    const foreign = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: { ...MM_PLAN, toolId: theirs.insertId } })
+    expect(foreign.status).toBe(404)
+    expect(foreign.text).not.toContain('Other cutter')
+  })
+
+  it('writes a plan stored before the rename (warmupSeconds) again with its spin-up dwell', async () => {
+    const made = await call('POST', '/api/plans/surfacing', { cookie: await as('operator'), body: MM_PLAN })
+    const { spinUpSeconds, ...old } = MM_PLAN
+    await db().query('update surfacing_plans set input = ? where id = ?', [JSON.stringify({ ...old, warmupSeconds: spinUpSeconds }), made.body.planId])
+    const got = await call('GET', `/api/plans/${made.body.planId}`, { cookie: await as('operator') })
+    expect(got.status, got.text).toBe(200)
+    expect(blocks(got.body.gcode)).toContain('G4 P5')
   })
 })

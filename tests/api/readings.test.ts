@@ -63,6 +63,10 @@ describe('POST then GET /api/machines/:id/readings', () => {
     // F1: LSQ P-V 0.100 and clean-up 0.300 mm (REFERENCES §2.D); the vertical-residual P-V is
     // exact here, so a tight tolerance.
     expect(back.summary.flatnessAboutPlaneMm).toBeCloseTo(0.1, 9)
+    // Minimum zone (ISO 1101): the saddle's corner residuals keep r(+,+) − r(+,−) − r(−,+) + r(−,−)
+    // = 0.2 mm under any plane, so two differences of at most the zone width sum to 0.2: the
+    // zone is at least 0.1 mm, and the least-squares plane already reaches it (hand-worked).
+    expect(back.summary.flatnessMinimumZoneMm).toBeCloseTo(0.1, 9)
     expect(back.summary.flatnessAboutXYMm).toBeCloseTo(0.3, 9)
     expect(back.summary.cleanupDepthMm).toBeCloseTo(0.3, 9)
     // Heights only give the shape: the thickness is an estimate anchored on the nominal 19 mm,
@@ -139,6 +143,8 @@ describe('bad readings answer 400 naming the path', () => {
     ['a single row', { grid: [[1, 2, 3]] }, 'grid', 'Take readings on 2 to 20 rows (got 1).'],
     ['a zero thickness', { kind: 'thickness', grid: [[18, 18], [0, 18]] }, 'grid.1.0', 'Thickness in row 2, column 1 must be more than 0.'],
     ['a spacing of zero', { spacing: { x: 0, y: 100 } }, 'spacing.x', 'Spacing X must be more than 0.'],
+    ['a spacing of 1e-200 mm', { spacing: { x: 100, y: 1e-200 } }, 'spacing.y', 'Spacing Y must be at least 1 mm; readings closer than that are one spot.'],
+    ['a faced depth too thin to be a facing', { facedDepth: 0.001 }, 'facedDepth', 'Faced depth must be at least 0.01 mm.'],
     ['unknown units', { units: 'cm' }, 'units', 'Units must be \'mm\' or \'in\'.'],
     ['a run id that is not a UUID', { runId: 'run-1' }, 'runId', 'Run id must be a run\'s UUID.'],
     ['another machine id in the body', { machineId: 999999 }, 'machineId', expect.stringContaining('address names machine')],
@@ -151,6 +157,38 @@ describe('bad readings answer 400 naming the path', () => {
   it('an empty body says so', async () => {
     const res = await call('POST', `/api/machines/${machineId}/readings`, { cookie: await as('operator') })
     expect(res.status).toBe(400)
+  })
+})
+
+describe('one stored reading that cannot be analysed', () => {
+  it('leaves the rest of the history answering, and says why for that reading', async () => {
+    // A machine of its own: one good reading, then a bad row written straight into the table
+    // (spacing 1e-200 mm passed the input check of earlier versions).
+    const made = await call('POST', '/api/machines', { cookie: await as('owner'), body: {
+      name: `Odd Reading Router ${Date.now()}`, travelXMm: 600, travelYMm: 600, travelZMm: 90, units: 'mm',
+      spindleKind: 'trim-router', hasLengthSensor: false, spoilboardMaterial: 'MDF', spoilboardNominalMm: 19, spoilboardMinMm: 12,
+    } })
+    const good = await post('operator', reading(), made.body.id)
+    expect(good.status, good.text).toBe(201)
+    const [[m]] = await db().query<any[]>('select shop_id from machines where id = ?', [made.body.id])
+    const [[u]] = await db().query<any[]>('select id from users where email = ?', ['operator@demo.jogwise.test'])
+    const [bad] = await db().query<any>(
+      'insert into spoilboard_readings (shop_id, machine_id, taken_by, taken_at, kind, grid, spacing_x_mm, spacing_y_mm) values (?, ?, ?, now(3), ?, ?, ?, ?)',
+      [m.shop_id, made.body.id, u.id, 'height', JSON.stringify(F1), 1e-200, 1e-200],
+    )
+    const list = await call('GET', `/api/machines/${made.body.id}/readings`, { cookie: await as('trainee') })
+    expect(list.status, list.text).toBe(200)
+    expect(list.text).not.toMatch(/at .*\.(mjs|js|ts):\d+|sqlMessage|ER_[A-Z_]+/)
+    const odd = list.body.find((r: any) => r.id === bad.insertId)
+    expect(odd.summary).toBeNull()
+    expect(odd.problem).toMatch(/^This reading cannot be analysed: /)
+    const fine = list.body.find((r: any) => r.id === good.body.id)
+    expect(fine.problem).toBeNull()
+    expect(fine.summary.flatnessMinimumZoneMm).toBeCloseTo(0.1, 9)
+    // A new reading after the odd one still saves and answers with its analysis.
+    const after = await post('operator', reading({ note: 'after the odd row' }), made.body.id)
+    expect(after.status, after.text).toBe(201)
+    expect(after.body.summary.flatnessAboutPlaneMm).toBeCloseTo(0.1, 9)
   })
 })
 

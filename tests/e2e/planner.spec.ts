@@ -67,7 +67,9 @@ test.describe('Planner at 1024×768', () => {
     expect(lines[0]).toBe('%')
     expect(lines[1]).toBe('(Jogwise surfacing program)')
     const blocks = lines.filter(l => l !== '%' && !l.startsWith('('))
-    expect(blocks.slice(0, 6)).toEqual(['G20', 'G90', 'G17', 'G94', 'G54', 'S16000 M3'])
+    expect(blocks.slice(0, 5)).toEqual(['G20', 'G90', 'G17', 'G94', 'G54'])
+    // Lift to safe Z and go over the start point before the spindle starts; G4 P in seconds (NISTIR 6556).
+    expect(blocks.slice(5, 9)).toEqual(['G0 Z0.2000', 'G0 X0.0000 Y0.0000', 'S16000 M3', 'G4 P5'])
     expect(blocks.slice(-2)).toEqual(['M5', 'M30'])
     // 42 raster lines in each of the 2 passes of 0.02 in, each one G1 move along X.
     expect(text).toContain('(42 lines along X, zigzag')

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { planSurfacing, surfacingGcode } from '#shared/machining'
+import { planSurfacing, surfacingGcode, upgradeStoredInput } from '#shared/machining'
 
 const ParamsSchema = z.object({ id: z.coerce.number().int().positive() })
 
@@ -22,10 +22,10 @@ export default defineEventHandler(async (event) => {
   if (!row) throw notFound('plan')
   // The machine's motion settings give the program header the same time estimate as before.
   const [machine] = row.machineId
-    ? await useDB().select({ accelMmS2: tables.machines.accelMmS2, rapidMmMin: tables.machines.rapidMmMin })
+    ? await useDB().select({ accelMmS2: tables.machines.accelMmS2, rapidMmMin: tables.machines.rapidMmMin, dwellUnit: tables.machines.dwellUnit })
         .from(tables.machines).where(and(eq(tables.machines.id, row.machineId), eq(tables.machines.shopId, user.shopId))).limit(1)
     : []
-  const result = planSurfacing(row.input, machine ?? {})
+  const result = planSurfacing(upgradeStoredInput(row.input), machine ?? {})
   if (!result.ok) {
     // Only if the planner's rules grew stricter since the plan was stored.
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This stored plan no longer passes the planner\'s checks; plan it again.', data: { issues: result.issues } })

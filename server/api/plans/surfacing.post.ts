@@ -5,7 +5,7 @@ import { planSurfacing, summarizeSurfacing, surfacingGcode, SurfacingInputSchema
 export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
   const body = await readValid(event, SurfacingInputSchema)
-  // Another shop's machine or run is simply not found.
+  // Another shop's machine, run or cutter is simply not found.
   const machine = body.machineId ? await findShopMachine(user, body.machineId) : null
   if (body.runId) {
     // The run, only in this shop
@@ -13,10 +13,14 @@ export default defineEventHandler(async (event) => {
       .where(and(eq(tables.runs.id, body.runId), eq(tables.runs.shopId, user.shopId))).limit(1)
     if (!run) throw notFound('run')
   }
-  const result = planSurfacing(body, machine
+  // A cutter from the shop's list brings its rated speed and name: the list is the authority.
+  const tool = body.toolId ? await findShopTool(user, body.toolId) : null
+  const planned = tool ? { ...body, cutter: { ...body.cutter, name: tool.name, maxRpm: tool.maxRpm } } : body
+  const result = planSurfacing(planned, machine
     ? {
         accelMmS2: machine.accelMmS2,
         rapidMmMin: machine.rapidMmMin,
+        dwellUnit: machine.dwellUnit,
         machine: { travelXMm: machine.travelXMm, travelYMm: machine.travelYMm, travelZMm: machine.travelZMm },
       }
     : {})
@@ -30,7 +34,7 @@ export default defineEventHandler(async (event) => {
     })
   }
   const summary = summarizeSurfacing(result.plan)
-  const { machineId, runId, ...input } = body
+  const { machineId, runId, ...input } = planned
   // Keep the plan for the shop's record
   const [row] = await useDB().insert(tables.surfacingPlans).values({
     shopId: user.shopId,
@@ -41,5 +45,5 @@ export default defineEventHandler(async (event) => {
     summary,
   }).$returningId()
   setResponseStatus(event, 201)
-  return { planId: row!.id, plan: summary, gcode: surfacingGcode(result.plan) }
+  return { planId: row!.id, plan: summary, warnings: result.plan.warnings, gcode: surfacingGcode(result.plan) }
 })

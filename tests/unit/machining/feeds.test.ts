@@ -126,3 +126,23 @@ describe('the Feeds screen calculation', () => {
     expect(r.issues).toContainEqual({ path, message })
   })
 })
+
+describe('Feeds input bounds (common practice, no published source)', () => {
+  const ok = { units: 'mm', diameter: 6, flutes: 2, rpm: 18000, chipLoad: 0.05 } as const
+  it.each([
+    ['diameter', { diameter: 1e-9 }, 'Cutter diameter must be at least 0.1 mm.'],
+    ['diameter', { diameter: 1e6 }, 'Cutter diameter must be at most 150 mm.'],
+    ['rpm', { rpm: 1e9 }, 'Spindle speed must be at most 60000 rpm.'],
+    ['chipLoad', { chipLoad: 50 }, 'Chip load must be at most 5 mm.'],
+    ['feed', { chipLoad: undefined, feed: 1e9 }, 'Feed must be at most 100000 mm/min.'],
+    ['diameter', { units: 'in', diameter: 10 }, 'Cutter diameter must be at most 5.906 in.'],
+    ['surfaceSpeed', { units: 'in', rpm: undefined, surfaceSpeed: 1e6 }, 'Surface speed must be at most 16000 SFM.'],
+  ])('%s: %j', (path, over, message) => {
+    const r = computeFeeds({ ...ok, ...over })
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.issues).toContainEqual({ path, message })
+  })
+  it('accepts the sensible case', () => {
+    expect(computeFeeds(ok).ok).toBe(true)
+  })
+})

@@ -17,18 +17,22 @@ const inputs = fc.record({
   overhang: fc.option(fc.double({ min: 0, max: 1, noNaN: true }), { nil: undefined }),
   totalDepth: fc.double({ min: 0.05, max: 1.5, noNaN: true }),
   passes: fc.double({ min: 1, max: 3.5, noNaN: true }),
-  finishing: fc.option(fc.double({ min: 0.05, max: 0.5, noNaN: true }), { nil: undefined }),
+  // Finishing depth as a fraction of the depth per pass (a finishing pass is never deeper).
+  finishing: fc.option(fc.double({ min: 0.05, max: 1, noNaN: true }), { nil: undefined }),
   feed: fc.double({ min: 300, max: 8000, noNaN: true }),
   plunge: fc.double({ min: 50, max: 1000, noNaN: true }),
   rpm: fc.integer({ min: 6000, max: 24000 }),
   direction: fc.constantFrom('x' as const, 'y' as const),
   pattern: fc.constantFrom('zigzag' as const, 'one-way' as const),
+  milling: fc.constantFrom('climb' as const, 'conventional' as const, undefined),
   safeZ: fc.double({ min: 1, max: 25, noNaN: true }),
-  warmupSeconds: fc.option(fc.integer({ min: 0, max: 20 }), { nil: undefined }),
+  spinUpSeconds: fc.option(fc.integer({ min: 0, max: 20 }), { nil: undefined }),
 }).map((r): SurfacingInput => {
   const k = r.units === 'mm' ? 1 : 1 / 25.4
-  const finishing = r.finishing === undefined ? undefined : { depth: r.finishing * r.totalDepth * k }
-  const roughing = r.totalDepth - (finishing ? r.finishing! * r.totalDepth : 0)
+  const depthPerPass = Math.min(r.totalDepth / r.passes, r.diameter / 2)
+  // Keep clear of the 0.01 mm thinnest cut, on the finishing pass and on what it leaves.
+  const finishingMm = r.finishing === undefined ? undefined : Math.max(0.011, r.finishing * depthPerPass)
+  const finishing = finishingMm === undefined || finishingMm > depthPerPass || r.totalDepth - finishingMm < 0.011 ? undefined : finishingMm
   return {
     units: r.units,
     area: { x: r.x * k, y: r.y * k },
@@ -36,15 +40,16 @@ const inputs = fc.record({
     stepoverPct: r.stepoverPct,
     overhang: r.overhang === undefined ? undefined : r.overhang * r.diameter * k,
     totalDepth: r.totalDepth * k,
-    depthPerPass: Math.min(roughing / r.passes, r.diameter / 2) * k,
-    finishingPass: finishing,
+    depthPerPass: depthPerPass * k,
+    finishingPass: finishing === undefined ? undefined : { depth: finishing * k },
     feed: r.feed * k,
     plunge: r.plunge * k,
     rpm: r.rpm,
     direction: r.direction,
     pattern: r.pattern,
+    milling: r.pattern === 'one-way' ? r.milling : undefined,
     safeZ: r.safeZ * k,
-    warmupSeconds: r.warmupSeconds,
+    spinUpSeconds: r.spinUpSeconds,
   }
 })
 
@@ -70,28 +75,48 @@ function distanceToSegment(px: number, py: number, s: Segment): number {
 }
 
 describe('surfacing programs read back by an independent G-code toolpath library', () => {
-  it('cover every sampled point of the area within the cutter radius at the final depth', () => {
+  // Every cutting level, not only the last: a plan that skipped lines on a middle pass would
+  // leave ridges its final pass then has to take at full depth.
+  it('cover every sampled point of the area within the cutter radius at every cutting level, stepping down no more than the depth per pass', () => {
     fc.assert(fc.property(inputs, fc.array(fc.tuple(fc.double({ min: 0, max: 1, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true })), { minLength: 20, maxLength: 60 }), (input, randomPoints) => {
       const plan = planOf(input)
       const { segments } = readProgram(surfacingGcode(plan))
-      const finalZ = mm(plan, -plan.input.totalDepth)
       const tol = resolutionMm(plan)
-      const finalCuts = segments.filter(s => s.motion === 'G1' && Math.abs(s.from.z - finalZ) <= tol && Math.abs(s.to.z - finalZ) <= tol)
-      expect(finalCuts.length).toBeGreaterThan(0)
-      const w = mm(plan, plan.input.area.x)
-      const h = mm(plan, plan.input.area.y)
+      const cuts = segments.filter(s => s.motion === 'G1' && Math.abs(s.from.z - s.to.z) <= tol && Math.hypot(s.to.x - s.from.x, s.to.y - s.from.y) > 0)
+      // Levels in the order the program reaches them.
+      const levels: number[] = []
+      for (const s of cuts) if (!levels.some(z => Math.abs(z - s.to.z) <= tol)) levels.push(s.to.z)
+      const v = plan.input
+      const total = mm(plan, v.totalDepth)
+      const perPass = mm(plan, v.depthPerPass)
+      const finishing = v.finishingPass ? mm(plan, v.finishingPass.depth) : 0
+      // Passes: equal roughing steps no deeper than asked, then the finishing pass.
+      expect(levels).toHaveLength(Math.ceil((total - finishing) / perPass - 1e-9) + (finishing ? 1 : 0))
+      levels.forEach((z, i) => {
+        const step = (i === 0 ? 0 : levels[i - 1]!) - z
+        expect(step, `step ${i + 1} of ${JSON.stringify(input)}`).toBeLessThanOrEqual(perPass + 2 * tol)
+        // MIN_CUT_MM = 0.01: no step is thinner than a cut (never a pass printed at Z0.000).
+        expect(step).toBeGreaterThanOrEqual(0.01 - 2 * tol)
+      })
+      expect(Math.abs(levels.at(-1)! + total)).toBeLessThanOrEqual(tol)
+      if (finishing) expect(Math.abs(levels.at(-2)! - levels.at(-1)! - finishing)).toBeLessThanOrEqual(2 * tol)
+      const w = mm(plan, v.area.x)
+      const h = mm(plan, v.area.y)
       const radius = mm(plan, plan.cutterRadius)
       // A 13 x 13 grid (corners and edges included) plus random points.
       const grid = Array.from({ length: 169 }, (_, k) => [(k % 13) / 12, Math.floor(k / 13) / 12] as [number, number])
-      for (const [u, v] of [...grid, ...randomPoints]) {
-        const px = u * w
-        const py = v * h
-        let best = Infinity
-        for (const s of finalCuts) {
-          best = Math.min(best, distanceToSegment(px, py, s))
-          if (best <= radius) break
+      for (const level of levels) {
+        const atLevel = cuts.filter(s => Math.abs(s.to.z - level) <= tol)
+        for (const [u, q] of [...grid, ...randomPoints]) {
+          const px = u * w
+          const py = q * h
+          let best = Infinity
+          for (const s of atLevel) {
+            best = Math.min(best, distanceToSegment(px, py, s))
+            if (best <= radius) break
+          }
+          expect(best, `point (${px}, ${py}) at Z ${level} of ${JSON.stringify(input)}`).toBeLessThanOrEqual(radius + tol)
         }
-        expect(best, `point (${px}, ${py}) of ${JSON.stringify(input)}`).toBeLessThanOrEqual(radius + tol)
       }
     }), { numRuns: 60 })
   }, PROPERTY_TIMEOUT)
@@ -221,21 +246,61 @@ describe('program text', () => {
     expect(header.join(' ')).toContain('Area X 600.000 by Y 400.000')
     expect(header.join(' ')).toContain('24 lines along X, zigzag')
     expect(header.join(' ')).toContain('spindle 18000 rpm')
-    expect(lines.slice(lines.indexOf('G21'), lines.indexOf('G21') + 6)).toEqual(['G21', 'G90', 'G17', 'G94', 'G54', 'S18000 M3'])
+    expect(lines.slice(lines.indexOf('G21'), lines.indexOf('G21') + 5)).toEqual(['G21', 'G90', 'G17', 'G94', 'G54'])
   })
 
-  it('follows the REFERENCES §2.C skeleton: retract, rapid to the corner, plunge at the plunge rate, cut at the feed', () => {
-    const start = lines.indexOf('S18000 M3') + 1
-    expect(lines.slice(start, start + 6)).toEqual(['G0 Z5.000', 'G0 X0.000 Y0.000', 'G1 Z-0.500 F500', 'G1 X600.000 F3000', 'G1 Y17.391', 'G1 X0.000'])
+  it('lifts to safe Z and goes over the start point before the spindle starts, then plunges at the plunge rate and cuts at the feed', () => {
+    // After a paper-feeler Z zero the cutter sits just above the board: it must not spin there.
+    const start = lines.indexOf('G54') + 1
+    expect(lines.slice(start, start + 7)).toEqual(['G0 Z5.000', 'G0 X0.000 Y0.000', 'S18000 M3', 'G1 Z-0.500 F500', 'G1 X600.000 F3000', 'G1 Y17.391', 'G1 X0.000'])
     expect(lines.slice(-4)).toEqual(['G0 Z5.000', 'M5', 'M30', '%'])
   })
 
-  it('writes inch programs with G20 and four decimals, and a G4 dwell for the warm-up', () => {
-    const inch = surfacingGcode(planOf({ ...base, units: 'in', area: { x: 24, y: 16 }, cutter: { diameter: 1, flutes: 2 }, totalDepth: 0.02, depthPerPass: 0.02, feed: 120, plunge: 20, safeZ: 0.2, warmupSeconds: 90 }))
+  it('starts the spindle only at safe Z above the first plunge, read back by the toolpath library (property)', () => {
+    fc.assert(fc.property(inputs, (input) => {
+      const plan = planOf(input)
+      const text = surfacingGcode(plan)
+      const tol = resolutionMm(plan)
+      const { segments } = readProgram(text)
+      // The moves written before M3 are the lines between G54 and the M3 line.
+      const all = text.split('\n')
+      const before = all.slice(all.indexOf('G54') + 1, all.findIndex(l => /^S\d+ M3$/.test(l)))
+      expect(before.length).toBeGreaterThanOrEqual(2)
+      expect(before.every(l => l.startsWith('G0 '))).toBe(true)
+      // The first feed move is the plunge, straight down from where M3 left the cutter.
+      const firstFeed = segments.find(s => s.motion === 'G1')!
+      expect(firstFeed.from.z).toBeGreaterThanOrEqual(mm(plan, plan.input.safeZ) - tol)
+      expect(Math.hypot(firstFeed.to.x - firstFeed.from.x, firstFeed.to.y - firstFeed.from.y)).toBe(0)
+    }), { numRuns: 40 })
+  }, PROPERTY_TIMEOUT)
+
+  it('writes inch programs with G20 and four decimals, and a G4 spin-up dwell in seconds (NISTIR 6556: G4 P is seconds)', () => {
+    const inch = surfacingGcode(planOf({ ...base, units: 'in', area: { x: 24, y: 16 }, cutter: { diameter: 1, flutes: 2 }, totalDepth: 0.02, depthPerPass: 0.02, feed: 120, plunge: 20, safeZ: 0.2, spinUpSeconds: 90 }))
     expect(inch).toContain('\nG20\n')
     expect(inch).not.toContain('G21')
-    expect(inch).toContain('\nG4 P90\n')
+    expect(inch).toContain('\nS18000 M3\nG4 P90\n')
+    expect(inch).toContain('(Spin-up dwell G4 P in seconds, as NIST RS274/NGC, NISTIR 6556')
     expect(inch).toContain('\nG1 Z-0.0200 F20\n')
     expect(inch).toContain('\nG1 Y0.6957\n')
+  })
+
+  it('writes the dwell in milliseconds for a machine whose control reads G4 P that way, and says so', () => {
+    const r = planSurfacing({ ...base, spinUpSeconds: 4.5 }, { dwellUnit: 'milliseconds' })
+    if (!r.ok) throw new Error(JSON.stringify(r.issues))
+    const text = surfacingGcode(r.plan)
+    expect(text).toContain('\nS18000 M3\nG4 P4500\n')
+    expect(text).toContain('written as G4 P in milliseconds')
+    expect(rs274Problems(text)).toEqual([])
+    // The same plan for a seconds machine dwells 4.5 s, not 4500 s.
+    expect(surfacingGcode(planOf({ ...base, spinUpSeconds: 4.5 }))).toContain('\nG4 P4.5\n')
+  })
+
+  it('records a spindle speed above the cutter\'s maximum as a WARNING in the header', () => {
+    const text = surfacingGcode(planOf({ ...base, rpm: 20000, cutter: { diameter: 25.4, flutes: 2, name: 'Facing 25', maxRpm: 18000 } }))
+    const header = text.split('\n').filter(l => l.startsWith('('))
+    expect(header).toContain('(Cutter Facing 25 rated to 18000 rpm)')
+    expect(header.some(l => l.startsWith('(WARNING: Spindle speed 20000 rpm is above the cutter\'s maximum of 18000 rpm'))).toBe(true)
+    expect(rs274Problems(text)).toEqual([])
+    expect(surfacingGcode(planOf({ ...base, rpm: 18000, cutter: { diameter: 25.4, flutes: 2, maxRpm: 18000 } }))).not.toContain('WARNING')
   })
 })

@@ -182,7 +182,7 @@ describe('time estimate with acceleration (trapezoidal profile)', () => {
   })
 
   it('makes short moves slower than length/feed and counts the warm-up dwell', () => {
-    const p = plan({ area: { x: 20, y: 20 }, cutter: { diameter: 6.35, flutes: 2 }, stepoverPct: 40, depthPerPass: 0.5, warmupSeconds: 30 })
+    const p = plan({ area: { x: 20, y: 20 }, cutter: { diameter: 6.35, flutes: 2 }, stepoverPct: 40, depthPerPass: 0.5, spinUpSeconds: 30 })
     // 9 lines of 20 mm (ramps fit: 20/50 + 50/500 s each) and 8 stepovers of 2.5 mm, too short
     // to reach 50 mm/s (2·√(2.5/500) s each); COMPUTED from the two formulas above.
     expect(p.lineCount).toBe(9)
@@ -193,7 +193,7 @@ describe('time estimate with acceleration (trapezoidal profile)', () => {
   })
 
   it('uses the default 500 mm/s² and 5000 mm/min unless told otherwise', () => {
-    expect(plan().settings).toEqual({ accelMmS2: 500, rapidMmMin: 5000 })
+    expect(plan().settings).toEqual({ accelMmS2: 500, rapidMmMin: 5000, dwellUnit: 'seconds' })
     // One-way returns are 600 mm rapids, long enough for the rate to matter.
     expect(plan({ pattern: 'one-way' }, { rapidMmMin: 10000 }).time.rapid).toBeLessThan(plan({ pattern: 'one-way' }).time.rapid)
   })

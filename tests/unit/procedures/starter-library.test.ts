@@ -63,6 +63,8 @@ describe('signal words of the starter holds', () => {
     ['spoilboard-resurfacing', 'sensor-off-notice', ['NOTICE'], 'cutter driven into the board: equipment damage only'],
     ['spoilboard-resurfacing', 'coolant-notice', ['NOTICE'], 'overheated spindle: equipment damage only'],
     ['stock-flattening', 'hold-down', ['WARNING'], 'stock thrown by the cutter: serious injury'],
+    ['spoilboard-resurfacing', 'cutter-rating', ['WARNING'], 'a cutter over its rated speed or with a loose insert can break apart: serious injury'],
+    ['stock-flattening', 'cutter-rating', ['WARNING'], 'the same hazard on the slab cutter'],
     ['stock-flattening', 'clamps-clear', ['WARNING'], 'shattered cutter and clamp thrown: serious injury'],
     ['spindle-tram-check', 'spindle-isolated', ['WARNING', 'DANGER'], '§F: unexpected start with hands at the sweep arm'],
     ['spindle-tram-check', 'why-tram', ['NOTICE'], 'ridges on faced surfaces: quality only (REFERENCES 8.3)'],
@@ -135,7 +137,8 @@ describe('power isolation before any cable is unplugged or plugged in', () => {
     expect(h.hazard).toMatch(/stored energy/)
     expect(h.avoid).toMatch(/spindle has stopped/)
     expect(h.avoid).toMatch(/Press the start control to prove nothing moves/)
-    expect(h.avoid).toMatch(/pull it and keep it where you can see it/)
+    // Exclusive control of the plug (1910.147(a)(2)(iii)(A)), not merely in sight.
+    expect(h.avoid).toMatch(/pull it and keep it under your own control/)
   })
 
   // Walks each procedure: a step that unplugs or plugs in a cable must come while power is

@@ -1,0 +1,13 @@
+import { IdParamSchema } from '#shared/schemas/user'
+
+// Plans keep the cutter's name and sizes in their own input, so removing it loses no record.
+export default defineEventHandler(async (event) => {
+  const { id } = paramsValid(event, IdParamSchema)
+  const user = await requireRole(event, 'owner', 'trainer')
+  const current = await findShopTool(user, id)
+  // Remove the cutter, only within the user's shop
+  await useDB().delete(tables.tools)
+    .where(and(eq(tables.tools.id, id), eq(tables.tools.shopId, user.shopId)))
+  await recordAudit(user, 'tool.deleted', 'tool', id, { name: current.name })
+  return { ok: true }
+})

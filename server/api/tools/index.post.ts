@@ -1,0 +1,12 @@
+import { ToolCreateSchema } from '#shared/schemas/tool'
+
+// Owners and trainers keep the shop's cutter list.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'owner', 'trainer')
+  const body = await readValid(event, ToolCreateSchema)
+  // A new cutter in the user's shop
+  const [{ id }] = await useDB().insert(tables.tools).values({ ...body, shopId: user.shopId }).$returningId() as [{ id: number }]
+  await recordAudit(user, 'tool.created', 'tool', id, { name: body.name })
+  setResponseStatus(event, 201)
+  return findShopTool(user, id)
+})
