@@ -21,6 +21,10 @@ export default defineConfig({
           include: ['tests/nuxt/**/*.test.ts'],
           environment: 'nuxt',
           setupFiles: ['tests/setup.ts'],
+          // Starting the Nuxt environment takes seconds on a busy 2-core machine; a slow start is
+          // not a failure.
+          hookTimeout: 60_000,
+          testTimeout: 30_000,
         },
       }),
       {
