@@ -6,6 +6,9 @@ const v = (name: string) => `rgb(var(--c-${name}) / <alpha-value>)`
 
 export default {
   darkMode: 'class',
+  // Hover colours only where a pointer can hover: on a touch screen a tapped control would keep
+  // its hover colour under the finger (a chosen signer turning unreadable, say).
+  future: { hoverOnlyWhenSupported: true },
   content: [],
   theme: {
     extend: {
