@@ -28,8 +28,12 @@ export function surfacingPreview(plan: SurfacingPlan): SurfacingPreview {
   const point = (along: number, across: number): PreviewPoint =>
     plan.rasterAxis === 'x' ? { x: along, y: across } : { x: across, y: along }
   const { from, to } = plan.lineSpan
+  // One-way lines all run the way the first plunge shows (climb or conventional, see surfacing.ts).
+  const plunge = plan.moves.find(m => m.kind === 'plunge')
+  const plungeAlong = plunge ? (plan.rasterAxis === 'x' ? plunge.x : plunge.y) : from
+  const oneWayReversed = pattern === 'one-way' && Math.abs(plungeAlong - to) < Math.abs(plungeAlong - from)
   const lines = plan.linePositions.map((across, index) => {
-    const reversed = pattern === 'zigzag' && index % 2 === 1
+    const reversed = pattern === 'zigzag' ? index % 2 === 1 : oneWayReversed
     return {
       index,
       from: point(reversed ? to : from, across),

@@ -12,6 +12,7 @@ import fc from 'fast-check'
 import { planSurfacing } from '../../../shared/machining/surfacing'
 import { surfacingGcode } from '../../../shared/machining/gcode'
 import type { SurfacingInput } from '../../../shared/machining/surfacing-input'
+import { surfacingPreview } from '../../../shared/machining/preview'
 import { readProgram, type Segment } from './program-check'
 
 type Judged = 'climb' | 'conventional'
@@ -97,4 +98,14 @@ describe('one-way programs cut every line the way asked', () => {
       },
     ), { numRuns: 60, seed: 12 })
   })
+
+  it('the preview draws one-way lines the way the program cuts them', () => {
+    for (const [direction, milling] of [['x', 'climb'], ['x', 'conventional'], ['y', 'climb'], ['y', 'conventional']] as const) {
+      const { plan, text } = program({ direction, milling })
+      const first = readProgram(text).segments.find(s => s.motion === 'G1' && s.from.z === s.to.z)!
+      const line = surfacingPreview(plan).lines[0]!
+      expect([line.from.x, line.from.y, line.to.x, line.to.y], `${direction} ${milling}`).toEqual([first.from.x, first.from.y, first.to.x, first.to.y])
+    }
+  })
 })
+
