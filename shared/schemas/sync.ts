@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { MAX_SEAL_LENGTH } from '../runs/signoff-seal'
 
 export const MAX_SYNC_EVENTS = 500
 
@@ -37,9 +38,7 @@ export interface SyncResponse {
   cursor: number
 }
 
-export const SignoffVerifySchema = z.object({
-  runId: z.uuid({ error: 'runId must be the run\'s id.' }),
-  signerId: z.number({ error: 'Pick who is signing.' }).int().positive('Pick who is signing.'),
-  pin: z.string().regex(/^\d{4,8}$/, 'A PIN is 4 to 8 digits.').optional(),
-  password: z.string().min(1, 'Enter the password.').max(200, 'That password is too long.').optional(),
-}).strict().refine(v => v.pin !== undefined || v.password !== undefined, { path: ['pin'], message: 'Enter the PIN or the password of the person signing.' })
+/** Body of POST /api/runs/:id/signoff-check: a sealed sign-off (shared/runs/signoff-seal.ts). */
+export const SignoffCheckSchema = z.object({
+  seal: z.string({ error: 'seal must be the sealed signature (text).' }).min(1, 'seal is required.').max(MAX_SEAL_LENGTH, 'seal is too long.'),
+}).strict()
