@@ -47,7 +47,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   const reject = (id: unknown, reason: string) => rejected.push({ id: typeof id === 'string' ? id : String(id ?? ''), reason })
 
   // 1. Each event on its own: shape, author, clock.
-  const candidates: { event: RunEvent, raw: Record<string, unknown> }[] = []
+  const candidates: { event: RunEvent }[] = []
   const seenInBatch = new Set<string>()
   const now = Date.now()
   for (const raw of request.events) {
@@ -70,7 +70,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       reject(event.id, `Event time ${event.at} is not believable; check the tablet's date and time.`)
       continue
     }
-    candidates.push({ event, raw })
+    candidates.push({ event })
   }
 
   // 2. Ids already stored: the same event again is accepted (a replay), another one is not.
@@ -111,7 +111,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
 
   // run.started first, so the other events of a run started in the same batch find it.
   const ordered = [...candidates].sort((a, b) => Number(b.event.type === 'run.started') - Number(a.event.type === 'run.started'))
-  for (const { event, raw } of ordered) {
+  for (const { event } of ordered) {
     const prior = existingById.get(event.id)
     if (prior) {
       if (prior.shopId === user.shopId && prior.runId === event.runId) accepted.push(event.id)
