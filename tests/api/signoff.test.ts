@@ -180,6 +180,22 @@ describe('POST /api/runs/:id/signoff-check', () => {
     expect((await sync('trainee', [{ ...e, seal: right }])).body.accepted).toEqual([e.id])
   })
 
+  it('seals the claim itself for a page without WebCrypto, after checking the PIN', async () => {
+    const runId = await runAtSignoff()
+    const cookie = await as('trainee')
+    const e = ev(runId, 'trainee', 'signoff.given', new Date(), { stepKey: 'isolate', signerId: ids.trainer, signerRole: 'trainer' })
+    const claim = { stepKey: 'isolate', signerId: ids.trainer, eventId: e.id, time: e.at }
+    const wrong = await call('POST', `/api/runs/${runId}/signoff-check`, { cookie, body: { claim: { ...claim, pin: '0000' } } })
+    expect(wrong.status).toBe(403)
+    const bad = await call('POST', `/api/runs/${runId}/signoff-check`, { cookie, body: { claim: { ...claim, pin: '12' } } })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues).toEqual([{ path: 'claim.pin', message: 'A PIN is 4 to 8 digits.' }])
+    const ok = await call('POST', `/api/runs/${runId}/signoff-check`, { cookie, body: { claim: { ...claim, pin: '2468' } } })
+    expect(ok.status).toBe(200)
+    expect(ok.body.seal).toMatch(/^js1\./)
+    expect((await sync('trainee', [{ ...e, seal: ok.body.seal }])).body.accepted).toEqual([e.id])
+  })
+
   it('refuses a stale seal and a seal for another run with a 400 naming the field', async () => {
     const runId = await runAtSignoff()
     const cookie = await as('trainee')

@@ -116,7 +116,8 @@ test('a wrong PIN signed offline flags the run, reaches the Ledger and mails the
   const ownerPage = await owner.newPage()
   await signIn(ownerPage, 'owner')
   await ownerPage.goto('/ledger?kind=signoff-failed')
-  await expect(ownerPage.getByText('Sign-off failed its check').first()).toBeVisible()
+  const rows = ownerPage.getByRole('table').getByRole('row').filter({ has: ownerPage.getByRole('link', { name: 'Record' }) })
+  await expect(rows.filter({ hasText: 'Sign-off failed its check' }).filter({ hasText: 'That PIN is not Teodor Lind\'s.' })).toHaveCount(2)
   const ledger = await (await ownerPage.request.get('/api/ledger?kind=signoff-failed&pageSize=100')).json()
   expect(ledger.rows.filter((r: any) => r.runId === runId)).toHaveLength(2)
   await ownerPage.screenshot({ path: 'test-results/offline-signoff-ledger.png' })
@@ -125,4 +126,43 @@ test('a wrong PIN signed offline flags the run, reaches the Ledger and mails the
     return all.some(m => m.to.some(t => t.address === 'owner@demo.jogwise.test') && /^Sign-off failed its check on Bench Router$/.test(m.subject) && m.text.includes(`/runs/${runId}/record`))
   }, { timeout: 30_000, message: 'the owner\'s alert mail' }).toBe(true)
   await owner.close()
+})
+
+test('offline, the Floor shows the run at the tablet\'s own latest step and keeps its due badges', async ({ browser }) => {
+  const context = await browser.newContext()
+  const page = await context.newPage()
+  await signInForOffline(page, 'operator')
+  const runId = await startProcedure(page, 'Bench Router', /Change the collet and bit/)
+  await expect(syncState(page)).toHaveText('Online')
+  await page.getByRole('link', { name: 'Floor', exact: true }).click()
+  const tile = page.getByRole('article', { name: 'Bench Router' })
+  const badges = await tile.getByTestId('machine-due').count()
+  await expect(tile.getByText(/Step 1 of 11: Stop the spindle/)).toBeVisible()
+  // The due list the Floor last had is kept on the tablet (the demo shop has three intervals).
+  const due = await (await page.request.get('/api/due')).json()
+  expect(due.length).toBeGreaterThan(0)
+  await expect.poll(() => page.evaluate(() => new Promise<number>((resolve) => {
+    const open = indexedDB.open('jogwise')
+    open.onsuccess = () => {
+      const req = open.result.transaction('kv').objectStore('kv').get('floor-due')
+      req.onsuccess = () => resolve(Array.isArray(req.result) ? req.result.length : -1)
+    }
+  }))).toBe(due.length)
+
+  await context.setOffline(true)
+  await page.goto(`/runs/${runId}`)
+  await pressAndHold(page, /Hold to acknowledge/)
+  await expect(page.getByRole('heading', { level: 1 })).toHaveText('Handle cutters by the shank')
+  await pressAndHold(page, /Hold to acknowledge/)
+  await page.getByRole('button', { name: /Done — next step/ }).click()
+  await expect(syncState(page)).toContainText('3 waiting')
+  await page.getByRole('link', { name: 'Floor', exact: true }).click()
+  await expect(tile.getByText(/Step 4 of 11: Remove the old bit/)).toBeVisible()
+  await expect(tile.getByTestId('machine-due')).toHaveCount(badges)
+  // A hard reload offline too: the Floor comes from the shell and the tablet's own copies.
+  await page.reload()
+  await expect(tile.getByText(/Step 4 of 11: Remove the old bit/)).toBeVisible()
+  await expect(tile.getByTestId('machine-due')).toHaveCount(badges)
+  await page.screenshot({ path: 'test-results/offline-floor.png' })
+  await context.close()
 })

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { SEAL_CHECK_WINDOW_MS } from '#shared/runs/signoff-seal'
+import { newNonce, SEAL_CHECK_WINDOW_MS, sealClaim } from '#shared/runs/signoff-seal'
 import { SignoffCheckSchema } from '#shared/schemas/sync'
 
 const ParamsSchema = z.object({ id: z.uuid() })
@@ -10,7 +10,8 @@ const invalid = (path: string, message: string) =>
 // The online answer to a sealed sign-off on a trainee's tablet: is the sealed PIN or password
 // the signer's? It consumes nothing; the sign-off event carries the same seal through the queue
 // and the sync merge checks it again, binding and one-time nonce included. Offline, the tablet
-// skips this and the sign-off waits as "awaiting check".
+// skips this and the sign-off waits as "awaiting check". A page served over plain http has no
+// WebCrypto to seal with: it sends the claim itself and gets back the seal the server made.
 export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, ParamsSchema)
   const user = await requireShopUser(event)
@@ -18,7 +19,8 @@ export default defineEventHandler(async (event) => {
   const [run] = await useDB().select({ id: tables.runs.id }).from(tables.runs).where(and(eq(tables.runs.id, id), eq(tables.runs.shopId, user.shopId))).limit(1)
   if (!run) throw notFound('run')
   const body = await readValid(event, SignoffCheckSchema)
-  const opened = await openSignoffSeal(body.seal)
+  const seal = body.seal ?? await sealClaim((await useSignoffKeys()).publicKey, { ...body.claim!, runId: id, nonce: newNonce() })
+  const opened = await openSignoffSeal(seal)
   if (!opened.ok) throw invalid('seal', opened.reason)
   const claim = opened.claim
   if (claim.runId !== id) throw invalid('seal', 'The signature was given for another run.')
@@ -35,5 +37,5 @@ export default defineEventHandler(async (event) => {
     if (secret.lockedMs) throw signoffLocked(event, secret.lockedMs, signer.name)
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: secret.reason, data: { issues: [{ path: secret.field, message: secret.reason }] } })
   }
-  return { signerId: signer.id, signerName: signer.name, signerRole: signer.role as 'owner' | 'trainer' }
+  return { signerId: signer.id, signerName: signer.name, signerRole: signer.role as 'owner' | 'trainer', ...(body.claim ? { seal } : {}) }
 })
