@@ -133,16 +133,16 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       reject(event.id, why ? `Its run was not accepted: ${why}` : 'The run this event belongs to has not reached the server; send its start first.')
       continue
     }
+    if (event.type === 'hold.overridden' && !['owner', 'trainer'].includes(user.role)) {
+      reject(event.id, 'Only a trainer or the owner may override a hold.')
+      continue
+    }
     const crew = crews.get(event.runId)
     const notAllowed = crew ? actorProblem(crew, user, qualifiedFor, event) : null
     if (notAllowed) {
       // Kept on the record, not counted (the fold flags it): visible to the owner either way.
       event.verdict = { status: 'refused', code: 'actor-not-allowed', reason: notAllowed }
       if (event.type === 'signoff.given') delete event.seal
-    }
-    else if (event.type === 'hold.overridden' && !['owner', 'trainer'].includes(user.role)) {
-      reject(event.id, 'Only a trainer or the owner may override a hold.')
-      continue
     }
     else if (event.type === 'run.handed-over') {
       const to = personById.get(event.toUserId)
@@ -187,7 +187,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       })))
       await refoldRuns(tx as unknown as DB, user.shopId, touched)
       // Owner alerts for overrides stored by this batch, in the same transaction (mail outbox).
-      await enqueueOverrideAlerts(tx, user, toInsert)
+      await enqueueOverrideAlerts(tx, user, toInsert.filter(e => e.verdict?.status !== 'refused'))
       // The same alert for sign-offs whose signature failed its check
       await enqueueSignoffFailedAlerts(tx, user, failedSignoffs)
     })
