@@ -23,6 +23,8 @@ export function useFloorDue() {
 }
 
 export interface TabletProgress { currentStepNumber: number | null, currentStepTitle: string | null, stepCount: number }
+/** A run this tablet has work queued for, as a Floor tile shows it. */
+export interface TabletRun extends TabletProgress { id: string, machineId: number, procedureTitle: string, mode: string, startedByName: string, finished: boolean }
 
 /**
  * Where this tablet has each run got to: the run's saved copy folded with the events still in
@@ -43,8 +45,9 @@ export function useTabletProgress(runIds: Ref<string[]>) {
       }
     }, { immediate: true })
   }
+  const { user } = useUserSession()
   return computed(() => {
-    const out = new Map<string, TabletProgress>()
+    const out = new Map<string, TabletRun>()
     for (const [id, snap] of Object.entries(snapshots.value)) {
       const queued = sync.waiting.filter(q => q.event.runId === id)
       if (!queued.length) continue
@@ -54,7 +57,12 @@ export function useTabletProgress(runIds: Ref<string[]>) {
       for (const q of queued) byId.set(q.event.id, q.event)
       const state = foldRun(snap.version.steps, [...byId.values()])
       const current = state.steps[state.currentStepIndex]
-      out.set(id, { currentStepNumber: current ? state.currentStepIndex + 1 : null, currentStepTitle: current?.title ?? null, stepCount: state.steps.length })
+      const starter = state.started?.actorId
+      out.set(id, {
+        id, machineId: snap.machineId, procedureTitle: snap.version.title, mode: state.mode ?? 'guided', finished: state.status !== 'active',
+        startedByName: (starter !== undefined && (snap.people?.[starter] ?? (starter === user.value?.id ? user.value?.name : undefined))) || 'Someone',
+        currentStepNumber: current ? state.currentStepIndex + 1 : null, currentStepTitle: current?.title ?? null, stepCount: state.steps.length,
+      })
     }
     return out
   })

@@ -55,6 +55,6 @@ describe('offline sign-off on the tablet', () => {
       { event: makeEvent(ctx(runId, 2), 'hold.acknowledged', { stepKey: 'gear' }), queuedAt: '', state: 'waiting' },
     )
     const progress = useTabletProgress(ref([runId]))
-    await vi.waitFor(() => expect(progress.value.get(runId)).toEqual({ currentStepNumber: 3, currentStepTitle: 'Isolate the power', stepCount: STEPS.length }))
+    await vi.waitFor(() => expect(progress.value.get(runId)).toMatchObject({ id: runId, machineId: 1, currentStepNumber: 3, currentStepTitle: 'Isolate the power', stepCount: STEPS.length, finished: false, startedByName: USER.name }))
   })
 })
