@@ -85,11 +85,16 @@ export function useRun(runId: string) {
   /** Flags the server set on stored events (e.g. a late event that passed an open hold). */
   const serverFlags = computed(() => new Map((snapshot.value?.serverEvents ?? []).filter(e => e.flag).map(e => [e.id, e.flag!])))
 
-  /** Appends one event: on the tablet first, then to the server when it can. */
-  async function act<T extends RunEventType>(type: T, payload: RunEventPayload<T>, extra?: Record<string, unknown>) {
+  /**
+   * Appends one event: on the tablet first, then to the server when it can. `fixed` gives the
+   * event's id and time when something made earlier names them (a sealed sign-off).
+   */
+  async function act<T extends RunEventType>(type: T, payload: RunEventPayload<T>, fixed?: Record<string, unknown>) {
     if (!user.value) throw new Error('Sign in first.')
-    const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId() }, type, ...([payload] as any))
-    await sync.enqueue(event, extra)
+    const id = typeof fixed?.id === 'string' ? fixed.id : undefined
+    const at = typeof fixed?.at === 'string' ? fixed.at : undefined
+    const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId(), id, at }, type, ...([payload] as any))
+    await sync.enqueue(event)
     return event
   }
 

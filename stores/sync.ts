@@ -11,7 +11,7 @@ import { nextDelay } from '~/utils/backoff'
 
 export interface QueuedEvent {
   event: RunEvent
-  /** Extra fields the server needs but the fold does not (a sign-off's proof). */
+  /** Extra fields the server needs but the fold does not. */
   extra?: Record<string, unknown>
   queuedAt: string
   state: 'waiting' | 'rejected'
@@ -118,8 +118,10 @@ export const useSyncStore = defineStore('sync', () => {
       // What the server now holds (our accepted events and others' new ones) joins each run's
       // copy on the tablet, so a reload offline still shows it. It joins in the same tick as
       // it leaves the queue: in between, the Run screen would fold without it and step back.
+      // A sign-off comes back with the server's verdict in place of its seal; that copy wins.
+      const returned = new Set(res.events.map(e => e.id))
       const confirmed: ServerEvent[] = [
-        ...batch.filter(q => accepted.has(q.event.id)).map(q => ({ ...q.event, seq: 0, flag: null }) as ServerEvent),
+        ...batch.filter(q => accepted.has(q.event.id) && !returned.has(q.event.id)).map(q => ({ ...q.event, seq: 0, flag: null }) as ServerEvent),
         ...res.events,
       ]
       for (const e of confirmed) (incoming.value[e.runId] ??= []).push(e)

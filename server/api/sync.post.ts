@@ -4,5 +4,5 @@ import { SyncRequestSchema } from '#shared/schemas/sync'
 export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
   const body = await readValid(event, SyncRequestSchema)
-  return mergeSync(user, body)
+  return mergeSync(user, body, clientAddress(event))
 })

@@ -294,7 +294,7 @@ export const mailOutbox = mysqlTable('mail_outbox', {
   index('mail_outbox_due_idx').on(t.status, t.nextAttemptAt),
 ])
 
-export const LEDGER_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check'] as const
+export const LEDGER_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check', 'signoff-failed'] as const
 
 // What the Ledger lists: one row per event that an owner must be able to find (an override,
 // a late event that passed an open hold, a reading out of range, a check skipped), written by
@@ -330,3 +330,22 @@ export const signInFailures = mysqlTable('sign_in_failures', {
   index('sign_in_failures_email_idx').on(t.email, t.at),
   index('sign_in_failures_address_idx').on(t.address, t.at),
 ])
+
+// The key tablets seal sign-offs to (shared/runs/signoff-seal.ts). One row, made by the first
+// app server that needs it, so every app server of a cluster opens the same seals.
+export const signoffKeys = mysqlTable('signoff_keys', {
+  id: int('id').primaryKey(),
+  keyId: varchar('key_id', { length: 32 }).notNull(),
+  publicSpki: text('public_spki').notNull(),
+  privatePkcs8: text('private_pkcs8').notNull(),
+  createdAt: createdAt(),
+})
+
+// Each sealed sign-off's one-time nonce, stored with the event it signed: a nonce counts once.
+export const signoffNonces = mysqlTable('signoff_nonces', {
+  nonce: varchar('nonce', { length: 64 }).primaryKey(),
+  shopId: int('shop_id').notNull().references(() => shops.id),
+  eventId: varchar('event_id', { length: 36 }).notNull(),
+  signerId: int('signer_id').notNull().references(() => users.id),
+  createdAt: createdAt(),
+})

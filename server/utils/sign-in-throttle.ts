@@ -41,10 +41,29 @@ function tooMany(event: H3Event, ms: number, what: string) {
  * with Retry-After when the account or the address is over its limit.
  */
 export async function beginSignInAttempt(event: H3Event, email: string, what = 'sign-ins') {
+  const attempt = await beginAttempt(email.trim().toLowerCase().slice(0, 254), clientAddress(event))
+  if ('waitMs' in attempt) throw tooMany(event, attempt.waitMs, what)
+  return attempt
+}
+
+/**
+ * The same for a signer's PIN or password given at a sign-off (the online check or a sealed
+ * sign-off opened at merge). Counted apart from sign-ins, under the signer's id and the
+ * tablet's address, so wrong PINs typed at a sign-off lock that signer's sign-offs only and
+ * never their own sign-in (nor the tablet's other sign-ins). Returns `waitMs` when locked.
+ */
+export function beginSignoffAttempt(signerId: number, address: string) {
+  return beginAttempt(`signoff:${signerId}`, `signoff:${address}`.slice(0, 64))
+}
+
+/** Throws the 429 of a locked sign-off attempt. */
+export function signoffLocked(event: H3Event, waitMs: number, signerName: string) {
+  return tooMany(event, waitMs, `PIN or password tries for ${signerName}`)
+}
+
+async function beginAttempt(key: string, address: string) {
   const db = useDB()
   const t = tables.signInFailures
-  const key = email.trim().toLowerCase().slice(0, 254)
-  const address = clientAddress(event)
   const now = Date.now()
   const since = new Date(now - SIGN_IN_WINDOW_MS)
   const [{ id }] = await db.insert(t).values({ email: key, address, at: new Date(now) }).$returningId() as [{ id: number }]
@@ -57,7 +76,7 @@ export async function beginSignInAttempt(event: H3Event, email: string, what = '
   if (wait > 0) {
     // This refused try, which is not a failure of its own
     await db.delete(t).where(eq(t.id, id))
-    throw tooMany(event, wait, what)
+    return { waitMs: wait }
   }
   return {
     /** The secret was right: the account starts afresh (the address keeps its count). */

@@ -37,13 +37,17 @@ const storedColumns = {
   payload: tables.runEvents.payload, flag: tables.runEvents.flag,
 }
 
-export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<SyncResponse> {
+/**
+ * Merges one batch. `address` is the tablet's (request-origin.ts): wrong PINs in sealed
+ * sign-offs count against the signer's sign-off throttle from there.
+ */
+export async function mergeSync(user: ShopUser, request: SyncRequest, address = 'unknown'): Promise<SyncResponse> {
   const db = useDB()
   const rejected: SyncRejection[] = []
   const reject = (id: unknown, reason: string) => rejected.push({ id: typeof id === 'string' ? id : String(id ?? ''), reason })
 
   // 1. Each event on its own: shape, author, clock.
-  const candidates: { event: RunEvent, raw: Record<string, unknown> }[] = []
+  const candidates: { event: RunEvent }[] = []
   const seenInBatch = new Set<string>()
   const now = Date.now()
   for (const raw of request.events) {
@@ -53,6 +57,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
       continue
     }
     const event = parsed.event
+    // A verdict is the server's to give; whatever the tablet wrote there is dropped.
+    delete event.verdict
     if (seenInBatch.has(event.id)) continue
     seenInBatch.add(event.id)
     if (event.actorId !== user.id) {
@@ -64,7 +70,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
       reject(event.id, `Event time ${event.at} is not believable; check the tablet's date and time.`)
       continue
     }
-    candidates.push({ event, raw })
+    candidates.push({ event })
   }
 
   // 2. Ids already stored: the same event again is accepted (a replay), another one is not.
@@ -78,13 +84,25 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
   // 3. The runs these events belong to, and what a new run needs to be allowed.
   const runIds = [...new Set(candidates.map(c => c.event.runId))]
   const runRows = runIds.length
-    ? await db.select({ id: tables.runs.id, shopId: tables.runs.shopId, procedureVersionId: tables.runs.procedureVersionId })
-      .from(tables.runs).where(inArray(tables.runs.id, runIds))
+    ? await db.select({
+      id: tables.runs.id, shopId: tables.runs.shopId, procedureVersionId: tables.runs.procedureVersionId,
+      startedBy: tables.runs.startedBy, mode: tables.runs.mode, procedureId: tables.procedureVersions.procedureId,
+    }).from(tables.runs).innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, tables.runs.procedureVersionId))
+      .where(inArray(tables.runs.id, runIds))
     : []
   const runsById = new Map(runRows.map(r => [r.id, r]))
-  const people = await db.select({ id: tables.users.id, role: tables.users.role, active: tables.users.active })
-    .from(tables.users).where(eq(tables.users.shopId, user.shopId))
+  const people = await db.select({
+    id: tables.users.id, name: tables.users.name, role: tables.users.role, active: tables.users.active,
+    pinHash: tables.users.pinHash, passwordHash: tables.users.passwordHash,
+  }).from(tables.users).where(eq(tables.users.shopId, user.shopId))
   const personById = new Map(people.map(p => [p.id, p]))
+  // Who may act on the runs already stored (run-actors.ts), and what this person may do solo
+  const crews = await loadRunCrews(db, user.shopId, runRows.filter(r => r.shopId === user.shopId))
+  const qualifiedFor = new Set((await db.select({ procedureId: tables.qualifications.procedureId }).from(tables.qualifications)
+    .where(eq(tables.qualifications.userId, user.id))).map(q => q.procedureId))
+  const batchNonces = new Set<string>()
+  const nonces: (typeof tables.signoffNonces.$inferInsert)[] = []
+  const failedSignoffs: Parameters<typeof enqueueSignoffFailedAlerts>[2] = []
 
   const accepted: string[] = []
   const toInsert: RunEvent[] = []
@@ -93,7 +111,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
 
   // run.started first, so the other events of a run started in the same batch find it.
   const ordered = [...candidates].sort((a, b) => Number(b.event.type === 'run.started') - Number(a.event.type === 'run.started'))
-  for (const { event, raw } of ordered) {
+  for (const { event } of ordered) {
     const prior = existingById.get(event.id)
     if (prior) {
       if (prior.shopId === user.shopId && prior.runId === event.runId) accepted.push(event.id)
@@ -119,16 +137,37 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
       reject(event.id, 'Only a trainer or the owner may override a hold.')
       continue
     }
-    if (event.type === 'signoff.given') {
+    const crew = crews.get(event.runId)
+    const notAllowed = crew ? actorProblem(crew, user, qualifiedFor, event) : null
+    if (notAllowed) {
+      // Kept on the record, not counted (the fold flags it): visible to the owner either way.
+      event.verdict = { status: 'refused', code: 'actor-not-allowed', reason: notAllowed }
+      if (event.type === 'signoff.given') delete event.seal
+    }
+    else if (event.type === 'run.handed-over') {
+      const to = personById.get(event.toUserId)
+      if (!to || !to.active) { reject(event.id, 'A run can be handed over only to an active member of this shop.'); continue }
+      crew?.handedTo.add(event.toUserId)
+    }
+    else if (event.type === 'signoff.given') {
       const signer = personById.get(event.signerId)
       if (!signer || !signer.active || !['owner', 'trainer'].includes(signer.role) || signer.role !== event.signerRole) {
         reject(event.id, 'The person signing must be an active trainer or owner of this shop.')
         continue
       }
-      if (!checkSignoffProof(event.signerId, event.runId, raw.proof)) {
-        reject(event.id, 'The sign-off was not confirmed with the signer\'s PIN or password.')
-        continue
+      // The sealed PIN or password, bound to this very event (signoff-verify.ts)
+      const target = { runId: event.runId, stepKey: event.stepKey ?? null, signerId: event.signerId, eventId: event.id, at: event.at }
+      const verdict = await verdictForSeal(event.seal, target, signer, address, nonce => batchNonces.has(nonce) || usedNonce(nonce))
+      if (verdict.outcome === 'reject') { reject(event.id, verdict.reason); continue }
+      batchNonces.add(verdict.nonce)
+      nonces.push({ nonce: verdict.nonce, shopId: user.shopId, eventId: event.id, signerId: signer.id })
+      // The seal holds the secret: it is opened here and never stored.
+      delete event.seal
+      if (verdict.outcome === 'failed') {
+        event.verdict = { status: 'refused', code: 'signoff-failed', reason: verdict.reason }
+        failedSignoffs.push({ event, reason: verdict.reason, signerName: signer.name })
       }
+      else event.verdict = { status: 'verified' }
     }
     accepted.push(event.id)
     toInsert.push(event)
@@ -139,13 +178,18 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
   if (toInsert.length) {
     await db.transaction(async (tx) => {
       if (newRuns.size) await tx.insert(tables.runs).ignore().values([...newRuns.values()])
+      // Each seal's nonce, once. Two batches racing with one seal cannot both count it for
+      // different events: the seal also names its event, whose id is unique.
+      if (nonces.length) await tx.insert(tables.signoffNonces).ignore().values(nonces)
       await tx.insert(tables.runEvents).ignore().values(toInsert.map(e => ({
         id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
         at: new Date(e.at), payload: payloadOf(e),
       })))
       await refoldRuns(tx as unknown as DB, user.shopId, touched)
       // Owner alerts for overrides stored by this batch, in the same transaction (mail outbox).
-      await enqueueOverrideAlerts(tx, user, toInsert)
+      await enqueueOverrideAlerts(tx, user, toInsert.filter(e => e.verdict?.status !== 'refused'))
+      // The same alert for sign-offs whose signature failed its check
+      await enqueueSignoffFailedAlerts(tx, user, failedSignoffs)
     })
   }
 
@@ -160,10 +204,17 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
       .orderBy(asc(tables.runEvents.seq))
     for (const row of rows) {
       cursor = Math.max(cursor, row.seq)
-      if (!sentIds.has(row.id)) events.push(toServerEvent(row))
+      // The tablet's own events come back only when the server added its verdict to them.
+      if (!sentIds.has(row.id) || row.payload.verdict !== undefined) events.push(toServerEvent(row))
     }
   }
   return { accepted, rejected, events, cursor }
+}
+
+/** Was this seal nonce stored with an earlier sign-off? */
+async function usedNonce(nonce: string) {
+  const [row] = await useDB().select({ nonce: tables.signoffNonces.nonce }).from(tables.signoffNonces).where(eq(tables.signoffNonces.nonce, nonce)).limit(1)
+  return !!row
 }
 
 /** Is this person allowed to start this run here? Returns the reason when not. */

@@ -3,6 +3,7 @@ import { v7 as uuidv7 } from 'uuid'
 import { toIssues, type FieldIssue } from '../schemas/issues'
 import { reasonProblem } from '../procedures/text'
 import type { Role } from '../types/roles'
+import { MAX_SEAL_LENGTH } from './signoff-seal'
 
 // A run is an append-only log of these events. They are made on the tablet (often offline),
 // written to IndexedDB first, synced later and merged by the server, so each one carries its
@@ -28,6 +29,7 @@ export const RUN_EVENT_TYPES = [
   'event.undone',
   'run.finished',
   'run.abandoned',
+  'run.handed-over',
 ] as const
 export type RunEventType = typeof RUN_EVENT_TYPES[number]
 
@@ -48,12 +50,23 @@ const reason = (label: string) => str(label, 1000).superRefine((value, ctx) => {
 
 const stepKey = str('Step key', 60)
 
+// Written by the server only, when it merges the event (a tablet's own value is replaced):
+// a sign-off whose signature was checked, or an event kept on the record but not counted
+// (a wrong PIN, a person not on the run). The fold flags a refused event with its code.
+export const VERDICT_CODES = ['signoff-failed', 'actor-not-allowed'] as const
+export const VerdictSchema = z.discriminatedUnion('status', [
+  z.object({ status: z.literal('verified') }),
+  z.object({ status: z.literal('refused'), code: z.enum(VERDICT_CODES), reason: z.string().max(1000) }),
+], { error: 'A verdict is set by the server only.' })
+export type Verdict = z.infer<typeof VerdictSchema>
+
 const base = {
   id: z.uuidv7({ error: 'Event id must be a UUIDv7 string made on the device.' }),
   runId: z.uuid({ error: 'Run id must be a UUID string.' }),
   at: z.iso.datetime({ offset: true, error: 'Event time must be an ISO 8601 date and time with a time zone, e.g. 2025-03-01T08:15:00.000Z.' }),
   actorId: positiveId('Actor id'),
   deviceId: str('Device id', 64),
+  verdict: VerdictSchema.optional(),
 }
 
 export const RunStartedSchema = z.object({
@@ -118,6 +131,9 @@ export const SignoffGivenSchema = z.object({
   stepKey: stepKey.optional(),
   signerId: positiveId('Signer id'),
   signerRole: z.enum(SIGNER_ROLES, { error: 'Signer role must be trainer or owner.' }),
+  // The signer's secret and what it signs, encrypted to the server's key (signoff-seal.ts).
+  // The server opens it at merge and stores the verdict instead; it is never stored.
+  seal: z.string({ error: 'Seal must be text.' }).max(MAX_SEAL_LENGTH, 'Seal is too long.').optional(),
 })
 
 export const EventUndoneSchema = z.object({
@@ -134,6 +150,14 @@ export const RunAbandonedSchema = z.object({
   reason: reason('Reason for abandoning the run'),
 })
 
+// The run goes on with another person (another shift, another tablet): from now on their
+// events count too. Given by a person on the run or a trainer or the owner.
+export const RunHandedOverSchema = z.object({
+  ...base,
+  type: z.literal('run.handed-over'),
+  toUserId: positiveId('The person the run is handed to'),
+})
+
 export const RunEventSchema = z.discriminatedUnion('type', [
   RunStartedSchema,
   StepDoneSchema,
@@ -147,6 +171,7 @@ export const RunEventSchema = z.discriminatedUnion('type', [
   EventUndoneSchema,
   RunFinishedSchema,
   RunAbandonedSchema,
+  RunHandedOverSchema,
 ], {
   error: iss => iss.code === 'invalid_union'
     ? `Event type must be one of ${RUN_EVENT_TYPES.join(', ')}.`

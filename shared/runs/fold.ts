@@ -48,6 +48,9 @@ export const FLAG_CODES = [
   'not-undoable',
   'not-own-event',
   'undo-not-last',
+  // Set by the server's verdict at merge (events.ts VERDICT_CODES): kept on the record, not counted.
+  'signoff-failed',
+  'actor-not-allowed',
 ] as const
 export type FlagCode = typeof FLAG_CODES[number]
 
@@ -85,7 +88,14 @@ export interface SignoffRecord extends EventRef {
   signerId: number
   /** The role that made the signature count (from `roles` when given). */
   signerRole: SignerRole
+  /**
+   * 'awaiting': sealed on a tablet and not yet checked by the server (it counts meanwhile, so
+   * a guided run goes on offline; a failed check later flags it). 'verified': checked.
+   */
+  check: 'awaiting' | 'verified'
 }
+
+export interface HandoverRecord extends EventRef { toUserId: number }
 
 export interface PhotoRecord extends EventRef { stepKey: string, uploadId: string | null, note: string | null }
 export interface PlanRecord extends EventRef { stepKey: string, planId: string | null, summary: string }
@@ -147,6 +157,8 @@ export interface RunState {
   overrides: OverrideRecord[]
   /** Every sign-off that took effect. Undo never removes one. */
   signoffs: SignoffRecord[]
+  /** Every hand-over of the run to another person, in order. */
+  handovers: HandoverRecord[]
   /** Events that took effect, in fold order (including undo events and the events they undid). */
   applied: RunEvent[]
   /** Ids of applied events whose effect was undone. */
@@ -299,6 +311,7 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
   let notes: RunNote[] = []
   const overrides: OverrideRecord[] = []
   const signoffs: SignoffRecord[] = []
+  const handovers: HandoverRecord[] = []
   const applied: RunEvent[] = []
   const undone: string[] = []
   // Ids of effective actions (everything but notes), oldest first; undo may only take the top.
@@ -372,6 +385,12 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
   for (let n = 0; n < ordered.length; n++) {
     cur = ordered[n]!
     e = cur.event
+
+    // The server kept this event on the record but did not let it count (its verdict).
+    if (e.verdict?.status === 'refused') {
+      flag(e.verdict.code, e.verdict.reason)
+      continue
+    }
 
     if (!started) {
       if (e.type === 'run.started') {
@@ -543,7 +562,9 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
           break
         }
         const signerId = e.signerId
-        const record = (stepKey: string | null): SignoffRecord => ({ ...refOf(e), stepKey, signerId, signerRole: role })
+        // A stored verdict says checked; a seal without one is still on its way to the server.
+        const check = e.verdict?.status === 'verified' || e.seal === undefined ? 'verified' : 'awaiting'
+        const record = (stepKey: string | null): SignoffRecord => ({ ...refOf(e), stepKey, signerId, signerRole: role, check })
         if (e.stepKey === undefined) {
           const open = slots.filter(s => !isComplete(s))
           if (open.length > 0) {
@@ -673,6 +694,13 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
         break
       }
 
+      case 'run.handed-over': {
+        // Who may hand over is the server's rule (sync.ts); the fold only keeps the record.
+        handovers.push({ ...refOf(e), toUserId: e.toUserId })
+        apply(false)
+        break
+      }
+
       default: {
         const unknown = e as RunEvent
         flag('invalid-event', `Unknown event type "${String(unknown.type)}".`)
@@ -761,6 +789,7 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
     notes,
     overrides,
     signoffs,
+    handovers,
     applied,
     undoneIds: undone,
     flagged: allFlagged,

@@ -5,7 +5,7 @@ import type { EventRef, RunState } from './fold'
 // make the ledger_entries table match the state after every batch (an undo removes an entry)
 // and the rules can be tested without a database.
 
-export const LEDGER_ENTRY_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check'] as const
+export const LEDGER_ENTRY_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check', 'signoff-failed'] as const
 export type LedgerEntryKind = typeof LEDGER_ENTRY_KINDS[number]
 
 export interface LedgerEntryDraft {
@@ -52,6 +52,16 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
     out.push({
       eventId: f.event.id, kind: 'late-past-hold', actorId: f.event.actorId, stepKey, at: f.event.at,
       detail: { stepTitle: titleOf(stepKey), eventType: f.event.type, code: f.code, reason: f.message },
+    })
+  }
+
+  // signoff-failed: a sign-off whose signature the server could not verify at merge.
+  for (const f of state.flagged) {
+    if (f.code !== 'signoff-failed' || f.event.type !== 'signoff.given') continue
+    const stepKey = f.event.stepKey ?? null
+    out.push({
+      eventId: f.event.id, kind: 'signoff-failed', actorId: f.event.actorId, stepKey, at: f.event.at,
+      detail: { stepTitle: titleOf(stepKey), signerId: f.event.signerId, signerRole: f.event.signerRole, reason: f.message },
     })
   }
 

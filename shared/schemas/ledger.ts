@@ -8,6 +8,7 @@ export const LEDGER_KIND_LABELS: Record<LedgerEntryKind, string> = {
   'late-past-hold': 'Went past a hold',
   'out-of-range': 'Reading out of range',
   'skipped-check': 'Check skipped',
+  'signoff-failed': 'Sign-off failed its check',
 }
 
 export const LEDGER_MAX_PAGE_SIZE = 100
@@ -75,5 +76,6 @@ export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unkn
     case 'late-past-hold': return String(d.reason ?? '')
     case 'out-of-range': return `${d.value} ${d.unit} is ${d.side} the range${d.range ? ` (${d.range})` : ''}; reason: ${d.reason ?? 'none given'}`
     case 'skipped-check': return String(d.reason ?? '')
+    case 'signoff-failed': return String(d.reason ?? '')
   }
 }

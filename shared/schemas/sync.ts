@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { MAX_SEAL_LENGTH } from '../runs/signoff-seal'
 
 export const MAX_SYNC_EVENTS = 500
 
@@ -37,9 +38,18 @@ export interface SyncResponse {
   cursor: number
 }
 
-export const SignoffVerifySchema = z.object({
-  runId: z.uuid({ error: 'runId must be the run\'s id.' }),
-  signerId: z.number({ error: 'Pick who is signing.' }).int().positive('Pick who is signing.'),
-  pin: z.string().regex(/^\d{4,8}$/, 'A PIN is 4 to 8 digits.').optional(),
-  password: z.string().min(1, 'Enter the password.').max(200, 'That password is too long.').optional(),
-}).strict().refine(v => v.pin !== undefined || v.password !== undefined, { path: ['pin'], message: 'Enter the PIN or the password of the person signing.' })
+/**
+ * Body of POST /api/runs/:id/signoff-check: a sealed sign-off (shared/runs/signoff-seal.ts), or,
+ * from a page without WebCrypto (plain http), the claim itself for the server to check and seal.
+ */
+export const SignoffCheckSchema = z.object({
+  seal: z.string({ error: 'seal must be the sealed signature (text).' }).min(1, 'seal is required.').max(MAX_SEAL_LENGTH, 'seal is too long.').optional(),
+  claim: z.object({
+    stepKey: z.string({ error: 'stepKey must be text.' }).min(1, 'stepKey must not be empty.').max(60, 'stepKey must be at most 60 characters.').nullable(),
+    signerId: z.number({ error: 'Pick who is signing.' }).int('Pick who is signing.').positive('Pick who is signing.'),
+    eventId: z.uuid({ error: 'eventId must be the sign-off event\'s id.' }),
+    time: z.iso.datetime({ offset: true, error: 'time must be an ISO date and time.' }),
+    pin: z.string({ error: 'A PIN is 4 to 8 digits.' }).regex(/^\d{4,8}$/, 'A PIN is 4 to 8 digits.').optional(),
+    password: z.string({ error: 'Enter the password.' }).min(1, 'Enter the password.').max(200, 'That password is too long.').optional(),
+  }, { error: 'claim must be an object.' }).strict().refine(c => (c.pin === undefined) !== (c.password === undefined), { path: ['pin'], message: 'Enter the PIN or the password of the person signing.' }).optional(),
+}).strict().refine(b => (b.seal === undefined) !== (b.claim === undefined), { path: ['seal'], message: 'Send the sealed signature (seal) or, without WebCrypto, the claim.' })

@@ -74,6 +74,7 @@ describe('parseRunEvent', () => {
       'event.undone': { targetId: newEventId() },
       'run.finished': {},
       'run.abandoned': { reason: 'Spindle bearing noise, stopped for repair' },
+      'run.handed-over': { toUserId: 4 },
     }
     const r = parseRunEvent(valid(type, payloads[type]))
     expect(r.ok).toBe(true)
