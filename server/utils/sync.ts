@@ -134,20 +134,22 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
     toInsert.push(event)
   }
 
-  // 4. Store, fold the touched runs again and keep their summary and flags current.
-  const touched = [...new Set(toInsert.map(e => e.runId))]
+  // 4. Store run by run, each in a savepoint of one transaction. An event counts as accepted only
+  // once its row is stored (or the same id already was); one MariaDB refuses, or one that makes
+  // its run unstorable, is rejected on its own with a reason and the rest go on.
+  const stored = new Set<string>()
   if (toInsert.length) {
     await db.transaction(async (tx) => {
-      if (newRuns.size) await tx.insert(tables.runs).ignore().values([...newRuns.values()])
-      await tx.insert(tables.runEvents).ignore().values(toInsert.map(e => ({
-        id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
-        at: new Date(e.at), payload: payloadOf(e),
-      })))
-      await refoldRuns(tx as unknown as DB, user.shopId, touched)
-      // Owner alerts for overrides stored by this batch, in the same transaction (mail outbox).
-      await enqueueOverrideAlerts(tx, user, toInsert)
+      for (const runId of new Set(toInsert.map(e => e.runId))) {
+        const outcome = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId))
+        for (const id of outcome.stored) stored.add(id)
+        for (const r of outcome.rejected) reject(r.id, r.reason)
+      }
     })
   }
+  const storedOrKnown = accepted.filter(id => stored.has(id) || !toInsert.some(e => e.id === id))
+  accepted.length = 0
+  accepted.push(...storedOrKnown)
 
   // 5. What the tablet does not have yet of the runs it sent or watches.
   const sentIds = new Set(request.events.map(e => e.id))
@@ -164,6 +166,81 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
     }
   }
   return { accepted, rejected, events, cursor }
+}
+
+/** Why a run's new events could not be stored; the message goes back to the tablet. */
+class Unstorable extends Error {}
+
+// Lock waits, deadlocks and a lost connection pass: the batch is tried again later, whole.
+const TRANSIENT_CODES = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT'])
+function transient(error: unknown) {
+  let e: any = error
+  for (let depth = 0; e && depth < 6; depth++, e = e.cause) if (TRANSIENT_CODES.has(e.code)) return true
+  return !!databaseUnreachable(error)
+}
+
+function unstorableReason(error: unknown) {
+  if (error instanceof Unstorable) return error.message
+  // Never MariaDB's own words (they may quote other rows); the event stays on the tablet.
+  return 'The server could not store this event (the database refused it); it stays on this tablet with this note.'
+}
+
+/**
+ * Stores one run's new events and folds the run again, all inside a savepoint. Only a duplicate
+ * id is passed over (the same event sent twice at once); any other refusal rejects that event.
+ * When the run cannot be stored as a whole, each event is tried alone, in order, so a good
+ * event is never held back by a bad one beside it.
+ */
+async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[]) {
+  const stored: string[] = []
+  const rejected: SyncRejection[] = []
+  const attempt = async (batch: RunEvent[]) => {
+    const done: RunEvent[] = []
+    await tx.transaction(async (sp) => {
+      const db = sp as unknown as DB
+      if (newRun) await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+      for (const e of batch) {
+        try {
+          await db.transaction(async (one) => {
+            // This event's row; a duplicate id changes nothing
+            await (one as unknown as DB).insert(tables.runEvents).values({
+              id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
+              at: new Date(e.at), payload: payloadOf(e),
+            }).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+          })
+          done.push(e)
+        }
+        catch (error) {
+          if (transient(error)) throw error
+          rejected.push({ id: e.id, reason: unstorableReason(error) })
+        }
+      }
+      if (!done.length) return
+      await refoldRuns(db, user.shopId, [done[0]!.runId])
+      // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
+      await enqueueOverrideAlerts(sp, user, done)
+    })
+    stored.push(...done.map(e => e.id))
+  }
+  try {
+    await attempt(events)
+  }
+  catch (error) {
+    if (transient(error)) throw error
+    rejected.length = 0
+    if (events.length === 1) {
+      rejected.push({ id: events[0]!.id, reason: unstorableReason(error) })
+      return { stored, rejected }
+    }
+    for (const e of events) {
+      try { await attempt([e]) }
+      catch (one) {
+        if (transient(one)) throw one
+        rejected.push({ id: e.id, reason: unstorableReason(one) })
+      }
+    }
+  }
+  return { stored, rejected }
 }
 
 /** Is this person allowed to start this run here? Returns the reason when not. */
@@ -191,6 +268,18 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
   return null
 }
 
+// Derived numbers (readings in mm, spindle minutes) must be finite and of a size a DOUBLE column
+// and the Ledger can hold; the API bounds make this unreachable, so it is a last guard.
+const MAX_DERIVED = 1e15 * 60
+function refuseUnstorableNumbers(value: unknown, depth = 0): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value) || Math.abs(value) > MAX_DERIVED) throw new Unstorable('A number in this run is too large to store; check the reading and enter it again.')
+  }
+  else if (value && typeof value === 'object' && depth < 12) {
+    for (const v of Object.values(value)) refuseUnstorableNumbers(v, depth + 1)
+  }
+}
+
 /** Folds runs from their stored events and writes back the run summary and event flags. */
 export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
   if (!runIds.length) return
@@ -209,6 +298,7 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
     // No roles passed: overrides and sign-offs were authorized when they were merged, and a
     // later role change must not turn yesterday's valid override into a flagged one.
     const state = foldRun(steps, stored.map(toRunEvent))
+    refuseUnstorableNumbers(state)
     const procedureId = versions.get(run.procedureVersionId)?.procedureId
     if (procedureId !== undefined) folded.push({ run, procedureId, state, steps })
     const flagById = new Map(state.flagged.map(f => [f.event.id, f.code]))

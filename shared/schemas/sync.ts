@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { MAX_ID } from './input'
 
 export const MAX_SYNC_EVENTS = 500
 
@@ -8,7 +9,7 @@ export const MAX_SYNC_EVENTS = 500
  */
 export const SyncRequestSchema = z.object({
   deviceId: z.string({ error: 'deviceId must be text.' }).trim().min(1, 'deviceId is required.').max(64, 'deviceId must be at most 64 characters.'),
-  since: z.number({ error: 'since must be a number.' }).int('since must be a whole number.').nonnegative('since must not be negative.').optional(),
+  since: z.number({ error: 'since must be a number.' }).int('since must be a whole number.').nonnegative('since must not be negative.').max(MAX_ID, 'since is beyond any stored event.').optional(),
   watch: z.array(z.uuid({ error: 'watch must list run ids (UUIDs).' }), { error: 'watch must be a list of run ids.' })
     .max(50, 'watch may list at most 50 runs.').optional(),
   events: z.array(z.record(z.string(), z.unknown(), { error: 'Each event must be an object.' }), { error: 'events must be a list.' })
@@ -39,7 +40,7 @@ export interface SyncResponse {
 
 export const SignoffVerifySchema = z.object({
   runId: z.uuid({ error: 'runId must be the run\'s id.' }),
-  signerId: z.number({ error: 'Pick who is signing.' }).int().positive('Pick who is signing.'),
+  signerId: z.number({ error: 'Pick who is signing.' }).int().positive('Pick who is signing.').max(MAX_ID, 'Pick who is signing.'),
   pin: z.string().regex(/^\d{4,8}$/, 'A PIN is 4 to 8 digits.').optional(),
   password: z.string().min(1, 'Enter the password.').max(200, 'That password is too long.').optional(),
 }).strict().refine(v => v.pin !== undefined || v.password !== undefined, { path: ['pin'], message: 'Enter the PIN or the password of the person signing.' })

@@ -37,9 +37,9 @@ export default defineEventHandler(async (event) => {
         'If you did not expect this, ignore this e-mail.',
       ].join('\n\n'),
     })
+    await recordAudit(tx, owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
     return id
   })
-  await recordAudit(owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
   setResponseStatus(event, 201)
   return { id, email: body.email, role: body.role, status: 'pending' as const, expiresAt: expiresAt.toISOString() }
 })

@@ -10,15 +10,16 @@ export default defineEventHandler(async (event) => {
   if (taken) {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'email: someone already uses that e-mail address.', data: { issues: [{ path: 'email', message: 'Someone already uses that e-mail address.' }] } })
   }
-  const [{ id }] = await db.insert(tables.users).values({
-    shopId: owner.shopId,
-    name: body.name,
-    email: body.email,
-    role: body.role,
-    passwordHash: await hashPassword(body.password),
-    pinHash: body.pin ? await hashPassword(body.pin) : null,
-  }).$returningId() as [{ id: number }]
-  await recordAudit(owner, 'user.created', 'user', id, { role: body.role })
+  const passwordHash = await hashPassword(body.password)
+  const pinHash = body.pin ? await hashPassword(body.pin) : null
+  // The new person and the audit line, together
+  const id = await db.transaction(async (tx) => {
+    const [{ id }] = await tx.insert(tables.users).values({
+      shopId: owner.shopId, name: body.name, email: body.email, role: body.role, passwordHash, pinHash,
+    }).$returningId() as [{ id: number }]
+    await recordAudit(tx, owner, 'user.created', 'user', id, { role: body.role })
+    return id
+  })
   setResponseStatus(event, 201)
   return { id, name: body.name, email: body.email, role: body.role, active: true }
 })
