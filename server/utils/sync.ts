@@ -86,6 +86,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
     .from(tables.users).where(eq(tables.users.shopId, user.shopId))
   const personById = new Map(people.map(p => [p.id, p]))
 
+  const sizes = await runSizes(runIds)
+
   const accepted: string[] = []
   const toInsert: RunEvent[] = []
   const newRuns = new Map<string, typeof tables.runs.$inferInsert>()
@@ -130,6 +132,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
         continue
       }
     }
+    const overSize = sizeProblem(sizes, event)
+    if (overSize) { reject(event.id, overSize); continue }
     accepted.push(event.id)
     toInsert.push(event)
   }
@@ -166,6 +170,37 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
     }
   }
   return { accepted, rejected, events, cursor }
+}
+
+// A run is a procedure followed once: a few hundred events. The caps keep one run (and every
+// later read and sync of it) small; the last events of a run always fit in a reserve above them.
+export const MAX_RUN_EVENTS = 2000
+export const MAX_RUN_NOTES = 200
+const RUN_RESERVE = 20
+const CLOSING_TYPES = new Set(['run.finished', 'run.abandoned', 'signoff.given'])
+
+async function runSizes(runIds: string[]) {
+  const sizes = new Map<string, { events: number, notes: number }>()
+  if (!runIds.length) return sizes
+  // Events and notes stored per run
+  const rows = await useDB().select({
+    runId: tables.runEvents.runId,
+    events: count(),
+    notes: sql<number>`sum(${tables.runEvents.type} = 'note.added')`,
+  }).from(tables.runEvents).where(inArray(tables.runEvents.runId, runIds)).groupBy(tables.runEvents.runId)
+  for (const r of rows) sizes.set(r.runId, { events: Number(r.events), notes: Number(r.notes ?? 0) })
+  return sizes
+}
+
+/** Counts the event against its run's caps; the reason when the run is full. */
+function sizeProblem(sizes: Map<string, { events: number, notes: number }>, event: RunEvent): string | null {
+  const size = sizes.get(event.runId) ?? sizes.set(event.runId, { events: 0, notes: 0 }).get(event.runId)!
+  const cap = CLOSING_TYPES.has(event.type) ? MAX_RUN_EVENTS + RUN_RESERVE : MAX_RUN_EVENTS
+  if (size.events >= cap) return `This run already holds ${size.events} events, the most one run may hold; finish it and start a new run.`
+  if (event.type === 'note.added' && size.notes >= MAX_RUN_NOTES) return `This run already has ${MAX_RUN_NOTES} notes, the most one run may have; put longer remarks in one note.`
+  size.events++
+  if (event.type === 'note.added') size.notes++
+  return null
 }
 
 /** Why a run's new events could not be stored; the message goes back to the tablet. */
@@ -243,6 +278,30 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
   return { stored, rejected }
 }
 
+/**
+ * A run follows the version that is current when it starts. One started on an older version,
+ * or on a retired procedure, is refused, unless the tablet started it (its own clock) before
+ * the newer version was published or the procedure retired: it was offline and could not know.
+ */
+async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.started' }>, procedureId: number): Promise<string | null> {
+  const db = useDB()
+  const startedAt = Date.parse(event.at)
+  // The procedure and the versions published after this one
+  const [procedure] = await db.select({ retiredAt: tables.procedures.retiredAt }).from(tables.procedures)
+    .where(eq(tables.procedures.id, procedureId)).limit(1)
+  if (procedure?.retiredAt && procedure.retiredAt.getTime() <= startedAt) {
+    return 'This procedure was retired before the run started; it can no longer be run.'
+  }
+  const [newer] = await db.select({ version: tables.procedureVersions.version, createdAt: tables.procedureVersions.createdAt })
+    .from(tables.procedureVersions)
+    .where(and(eq(tables.procedureVersions.procedureId, procedureId), gt(tables.procedureVersions.id, event.procedureVersionId)))
+    .orderBy(asc(tables.procedureVersions.createdAt)).limit(1)
+  if (newer && newer.createdAt.getTime() <= startedAt) {
+    return `Version ${newer.version} of this procedure was published before the run started; start the run again on the current version.`
+  }
+  return null
+}
+
 /** Is this person allowed to start this run here? Returns the reason when not. */
 async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>): Promise<string | null> {
   const db = useDB()
@@ -255,6 +314,8 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
   const [version] = await db.select({ procedureId: tables.procedureVersions.procedureId }).from(tables.procedureVersions)
     .where(and(eq(tables.procedureVersions.id, event.procedureVersionId), eq(tables.procedureVersions.shopId, user.shopId))).limit(1)
   if (!version) return 'No such procedure version in this shop.'
+  const outdated = await outdatedVersionProblem(event, version.procedureId)
+  if (outdated) return outdated
   if (event.mode === 'solo') {
     // Is this person qualified to run this procedure unsupervised?
     const [q] = await db.select({ id: tables.qualifications.id }).from(tables.qualifications)
