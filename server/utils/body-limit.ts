@@ -25,12 +25,12 @@ export function hasBody(event: H3Event) {
 /**
  * Reads the whole body, refusing it with a 413 as soon as it passes `limit` bytes. What is read
  * is handed to h3 (readBody / readRawBody use it), so routes need not know. Past the limit the
- * rest is not kept: the connection is closed once the 413 is sent.
+ * rest is read and dropped, never kept, so the client still gets to read the 413.
  */
 export function readBodyWithin(event: H3Event, limit: number): Promise<Buffer> {
   const req = event.node.req
   const declared = Number.parseInt(req.headers['content-length'] || '')
-  if (declared > limit) return Promise.reject(refuse(event, limit))
+  if (declared > limit) return Promise.reject(tooLarge(limit))
   const body = new Promise<Buffer>((resolve, reject) => {
     const chunks: Buffer[] = []
     let size = 0
@@ -39,9 +39,9 @@ export function readBodyWithin(event: H3Event, limit: number): Promise<Buffer> {
       if (size <= limit) { chunks.push(chunk); return }
       chunks.length = 0
       req.off('data', onData)
-      // Keep the socket flowing (bytes are dropped unread) until the answer has gone out.
+      // Keep the socket flowing; the rest of the bytes are dropped as they come.
       req.resume()
-      reject(refuse(event, limit))
+      reject(tooLarge(limit))
     }
     req.on('data', onData)
     req.once('end', () => resolve(Buffer.concat(chunks)))
@@ -49,10 +49,4 @@ export function readBodyWithin(event: H3Event, limit: number): Promise<Buffer> {
   })
   ;(req as unknown as Record<symbol, unknown>)[RAW_BODY] = body
   return body
-}
-
-function refuse(event: H3Event, limit: number) {
-  // The client may still be sending; a fresh connection starts clean.
-  setResponseHeader(event, 'Connection', 'close')
-  return tooLarge(limit)
 }

@@ -32,20 +32,26 @@ const MAX_MAIL_BYTES = 8 * 1024 * 1024
 export async function enqueueMail(db: DB | Tx, mail: MailInput): Promise<boolean> {
   const bytes = Buffer.byteLength(mail.text) + Buffer.byteLength(mail.html ?? '')
   if (bytes > MAX_MAIL_BYTES) throw new Error(`The ${mail.kind} mail ${mail.dedupeKey} is ${bytes} bytes, over the outbox's ${MAX_MAIL_BYTES}.`)
-  // A new row, or nothing when the dedupe key is already there
-  const [result] = await db.insert(tables.mailOutbox).values({
-    shopId: mail.shopId,
-    kind: mail.kind,
-    dedupeKey: mail.dedupeKey.slice(0, 160),
-    toAddress: mail.to,
-    subject: mail.subject.slice(0, 200),
-    textBody: mail.text,
-    htmlBody: mail.html ?? null,
-    linkSecret: mail.linkSecret ?? null,
-    // Set here rather than by the database so "due" is judged on one clock (the app's).
-    nextAttemptAt: new Date(),
-  }).onDuplicateKeyUpdate({ set: { dedupeKey: sql`dedupe_key` } }) as unknown as [{ affectedRows: number }]
-  return result.affectedRows === 1
+  // A new row; the dedupe key already there means it was queued before
+  try {
+    await db.insert(tables.mailOutbox).values({
+      shopId: mail.shopId,
+      kind: mail.kind,
+      dedupeKey: mail.dedupeKey.slice(0, 160),
+      toAddress: mail.to,
+      subject: mail.subject.slice(0, 200),
+      textBody: mail.text,
+      htmlBody: mail.html ?? null,
+      linkSecret: mail.linkSecret ?? null,
+      // Set here rather than by the database so "due" is judged on one clock (the app's).
+      nextAttemptAt: new Date(),
+    })
+    return true
+  }
+  catch (error) {
+    if (duplicateKey(error, 'mail_outbox_dedupe_unique')) return false
+    throw error
+  }
 }
 
 export interface MailSettings {

@@ -175,7 +175,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
 // A run is a procedure followed once: a few hundred events. The caps keep one run (and every
 // later read and sync of it) small; the last events of a run always fit in a reserve above them.
 export const MAX_RUN_EVENTS = 2000
-export const MAX_RUN_NOTES = 200
+export const MAX_RUN_NOTES = 500
 const RUN_RESERVE = 20
 const CLOSING_TYPES = new Set(['run.finished', 'run.abandoned', 'signoff.given'])
 
@@ -207,12 +207,7 @@ function sizeProblem(sizes: Map<string, { events: number, notes: number }>, even
 class Unstorable extends Error {}
 
 // Lock waits, deadlocks and a lost connection pass: the batch is tried again later, whole.
-const TRANSIENT_CODES = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT'])
-function transient(error: unknown) {
-  let e: any = error
-  for (let depth = 0; e && depth < 6; depth++, e = e.cause) if (TRANSIENT_CODES.has(e.code)) return true
-  return !!databaseUnreachable(error)
-}
+const transient = transientDatabaseError
 
 function unstorableReason(error: unknown) {
   if (error instanceof Unstorable) return error.message

@@ -13,6 +13,8 @@ export const MAX_ID = 2_147_483_647
  * Infinity. Fields have their own, tighter ranges; this is the floor under all of them.
  */
 export const MAX_INPUT_MAGNITUDE = 1e15
+/** No schema nests deeper than a few levels; the walk stops here rather than overflow the stack. */
+export const MAX_INPUT_DEPTH = 64
 
 export interface InputProblem { path: (string | number)[], message: string }
 
@@ -25,6 +27,10 @@ export function isWellFormed(text: string) {
 /** Every ill-formed string (value or key) and out-of-bounds number in a parsed JSON value. */
 export function inputProblems(value: unknown, skip: readonly string[] = [], path: (string | number)[] = [], out: InputProblem[] = []): InputProblem[] {
   if (out.length >= 20) return out
+  if (path.length > MAX_INPUT_DEPTH) {
+    out.push({ path: path.slice(0, MAX_INPUT_DEPTH), message: `The input is nested more than ${MAX_INPUT_DEPTH} levels deep.` })
+    return out
+  }
   if (typeof value === 'string') {
     if (!isWellFormed(value)) out.push({ path, message: 'The text has a broken character (a lone UTF-16 surrogate); type it again.' })
   }
