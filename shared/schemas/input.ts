@@ -35,7 +35,8 @@ export function inputProblems(value: unknown, skip: readonly string[] = [], path
     if (!isWellFormed(value)) out.push({ path, message: 'The text has a broken character (a lone UTF-16 surrogate); type it again.' })
   }
   else if (typeof value === 'number') {
-    if (!Number.isFinite(value) || Math.abs(value) > MAX_INPUT_MAGNITUDE) out.push({ path, message: `The number must be between -${MAX_INPUT_MAGNITUDE} and ${MAX_INPUT_MAGNITUDE}.` })
+    // NaN and Infinity never come out of JSON; each schema names them in its own words.
+    if (Math.abs(value) > MAX_INPUT_MAGNITUDE && Number.isFinite(value)) out.push({ path, message: `The number must be between -${MAX_INPUT_MAGNITUDE} and ${MAX_INPUT_MAGNITUDE}.` })
   }
   else if (Array.isArray(value)) {
     value.forEach((v, i) => inputProblems(v, [], [...path, i], out))
