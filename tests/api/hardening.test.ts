@@ -92,6 +92,7 @@ describe('Medium 5: bodies are counted as they arrive', () => {
     const before = rss(app.pid)
     let peak = before
     const res = await sendChunked(app.url, '/api/auth/login', 30 * 1024 * 1024, () => { peak = Math.max(peak, rss(app.pid)) })
+    console.log(`30 MB chunked sign-in: ${res.status} after ${(res.sent / 1024 / 1024).toFixed(1)} MB sent; server RSS ${((peak - before) / 1024 / 1024).toFixed(1)} MB above the ${(before / 1024 / 1024).toFixed(0)} MB before`)
     expect(res.status).toBe(413)
     expect(res.type).toMatch(/application\/json/)
     expect(JSON.parse(res.body).message).toMatch(/over 2 MB/)
