@@ -49,7 +49,14 @@ beforeAll(async () => {
   procedureId = made.body.id
   machineId = (await call('GET', '/api/machines', { cookie: await as('owner') })).body[0].id
 })
-afterAll(async () => { await db().end() })
+const madePeople: number[] = []
+afterAll(async () => {
+  // Leave the shared demo shop as the browser tests expect it: no extra procedure in the
+  // Library and Qualifications, no extra active people on the Crew screens.
+  await call('POST', `/api/procedures/${procedureId}/retire`, { cookie: await as('owner') })
+  for (const id of madePeople) await call('PATCH', `/api/users/${id}`, { cookie: await as('owner'), body: { active: false } })
+  await db().end()
+})
 
 /** Resident memory of a process in bytes (Linux proc(5), VmRSS in kB). */
 const rss = (pid: number) => Number(readFileSync(`/proc/${pid}/status`, 'utf8').match(/VmRSS:\s+(\d+)/)![1]) * 1024
@@ -246,6 +253,7 @@ describe('Low: invites', () => {
       const email = `second-owner-${stamp}-${Object.keys(change)[0]}@demo.jogwise.test`
       const made = await call('POST', '/api/users', { cookie: owner, body: { name: 'Second Owner', email, role: 'owner', password: 'second-owner-pass' } })
       expect(made.status).toBe(201)
+      madePeople.push(made.body.id)
       const second = await signIn(email, 'second-owner-pass')
       const sent = await call('POST', '/api/invites', { cookie: second, body: { email: `by-second-${stamp}-${Object.keys(change)[0]}@demo.jogwise.test`, role: 'operator' } })
       expect(sent.status).toBe(201)
@@ -303,6 +311,7 @@ describe('Low: state changes take JSON from our own pages only', () => {
     // Our own page's request (same origin) still works.
     const own = await call('POST', '/api/users', { cookie: await as('owner'), body: { name: 'Own Page', email, role: 'operator', password: 'own-page-password' }, headers: { 'origin': new URL(BASE_URL).origin, 'sec-fetch-site': 'same-origin' } })
     expect(own.status).toBe(201)
+    madePeople.push(own.body.id)
   })
 })
 
