@@ -98,7 +98,7 @@ export default defineNuxtConfig({
   nitro: {
     hooks: {
       // The prerendered shell exists by the time the server itself is bundled.
-      'rollup:before': (nitro) => {
+      'build:before': (nitro) => {
         nitro.options.virtual['#jogwise-csp-hashes'] = () => cspHashesModule(nitro.options.output.publicDir)
       },
     },
