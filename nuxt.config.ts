@@ -1,4 +1,6 @@
+import { fileURLToPath } from 'node:url'
 import { pwa } from './pwa.config'
+import { cspHashesModule } from './server/build/csp-hashes'
 
 // Jogwise keeps Nuxt's folders at the repository root (app.vue, pages/, components/…), so srcDir
 // is '.'; server/, shared/ and public/ are Nuxt's defaults relative to it.
@@ -84,7 +86,22 @@ export default defineNuxtConfig({
   },
   // Payload files are fetched separately and fail offline (vitesse nuxt.config.ts note).
   experimental: { payloadExtraction: false },
+  // Production only: Nitro's node server plus JSON answers for requests Node refuses itself
+  // (server/entry/node-server.ts); `nuxt dev` keeps its own entry.
+  $production: {
+    nitro: {
+      entry: fileURLToPath(new URL('./server/entry/node-server.ts', import.meta.url)),
+      // The prerenderer (/shell) is built from the same config; it keeps its own entry.
+      hooks: { 'prerender:config': (config) => { delete config.entry } },
+    },
+  },
   nitro: {
+    hooks: {
+      // The prerendered shell exists by the time the server itself is bundled.
+      'build:before': (nitro) => {
+        nitro.options.virtual['#jogwise-csp-hashes'] = () => cspHashesModule(nitro.options.output.publicDir)
+      },
+    },
     compressPublicAssets: true,
     prerender: { routes: ['/shell'], crawlLinks: false },
     // The service worker and manifest must never be served stale (elk modules/pwa).

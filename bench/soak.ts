@@ -81,7 +81,7 @@ async function startServer() {
     try {
       const res = await fetch(`${BASE}/api/health`, { signal: AbortSignal.timeout(2000) })
       // Ready once the demo shop exists (scripts/lib.sh wait_for_ready asks the same).
-      if (res.ok && (await res.json()).shops > 0 && server.exitCode === null) return
+      if (res.ok && (await res.json()).ready === true && server.exitCode === null) return
     }
     catch {}
     await sleep(200)

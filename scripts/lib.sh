@@ -40,13 +40,13 @@ ensure_session_secret() {
 }
 
 
-# Waits until GET url answers 200 with JSON whose `shops` is above 0 (server up, demo seeded).
+# Waits until GET url answers 200 with JSON whose `ready` is true (server up, a shop seeded).
 wait_for_ready() { # url seconds
   node -e '
     const [url, limit] = [process.argv[1], Number(process.argv[2])]
     const until = Date.now() + limit * 1000
     const tick = async () => {
-      try { const r = await fetch(url); if (r.ok && (await r.json()).shops > 0) process.exit(0) } catch {}
+      try { const r = await fetch(url); if (r.ok && (await r.json()).ready === true) process.exit(0) } catch {}
       if (Date.now() > until) process.exit(1)
       setTimeout(tick, 300)
     }

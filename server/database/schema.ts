@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm'
 import {
-  boolean, double, index, int, json, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
+  boolean, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
 } from 'drizzle-orm/mysql-core'
 
 // One schema for the whole product. Table and column names are snake_case plurals (STYLE §4);
@@ -280,8 +280,12 @@ export const mailOutbox = mysqlTable('mail_outbox', {
   dedupeKey: varchar('dedupe_key', { length: 160 }).notNull(),
   toAddress: varchar('to_address', { length: 254 }).notNull(),
   subject: varchar('subject', { length: 200 }).notNull(),
-  textBody: text('text_body').notNull(),
-  htmlBody: text('html_body'),
+  // MEDIUMTEXT (16 MB): a busy shop's daily digest outgrows TEXT's 64 KB.
+  textBody: mediumtext('text_body').notNull(),
+  htmlBody: mediumtext('html_body'),
+  // An invite's one-time token, sealed with the server's secret (server/utils/invites.ts) and
+  // put into the body only as the mail is sent, then cleared: backups hold no working link.
+  linkSecret: varchar('link_secret', { length: 300 }),
   status: mysqlEnum('status', ['waiting', 'sent', 'failed']).notNull().default('waiting'),
   attempts: int('attempts').notNull().default(0),
   nextAttemptAt: timestamp('next_attempt_at', { fsp: 3 }).notNull().defaultNow(),

@@ -1,20 +1,20 @@
-// Rules for the whole /api prefix: a size limit on bodies and a session on every route except
-// the few that must answer before sign-in.
+// Rules for every request that changes something, and for the whole /api prefix: the request
+// comes from our own pages (Origin), carries JSON, stays within the size limit as it is read,
+// and has a session except on the few routes that must answer before sign-in.
 // An invite link is opened signed out: its preview and acceptance carry their own one-time token.
 const OPEN_ROUTES = new Set(['/api/auth/login', '/api/health', '/api/invites/preview', '/api/invites/accept'])
-const MAX_BODY_BYTES = 2 * 1024 * 1024
-// Photos have their own 10 MB rule in the route; this only stops bodies far beyond it early.
-const MAX_UPLOAD_BODY_BYTES = 11 * 1024 * 1024
+const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 
 export default defineEventHandler(async (event) => {
   const path = event.path.split('?')[0]!
-  if (!path.startsWith('/api/')) return
-  const length = Number(getRequestHeader(event, 'content-length') || 0)
-  const limit = event.method === 'PUT' && path.startsWith('/api/uploads/') ? MAX_UPLOAD_BODY_BYTES : MAX_BODY_BYTES
-  if (length > limit) {
-    throw createError({ statusCode: 413, statusMessage: 'Payload too large', message: `The request body is over ${limit / 1024 / 1024} MB.` })
+  const changes = STATE_CHANGING.has(event.method)
+  if (changes) refuseCrossSite(event)
+  if (!path.startsWith('/api/')) {
+    if (changes && hasBody(event)) await readBodyWithin(event, MAX_BODY_BYTES)
+    return
   }
+  if (changes && hasBody(event)) requireJsonBody(event, path)
   // nuxt-auth-utils' own session route answers signed-out clients with an empty session.
-  if (OPEN_ROUTES.has(path) || path.startsWith('/api/_auth/')) return
-  await requireShopUser(event)
+  if (!OPEN_ROUTES.has(path) && !path.startsWith('/api/_auth/')) await requireShopUser(event)
+  if (changes && hasBody(event)) await readBodyWithin(event, bodyLimitFor(event))
 })

@@ -1,12 +1,10 @@
-import { createHash } from 'node:crypto'
-import { brotliDecompressSync, gunzipSync } from 'node:zlib'
-import type { H3Event } from 'h3'
+import buildScriptHashes from '#jogwise-csp-hashes'
 
 // Security headers on every answer, pages and API alike. The Content-Security-Policy allows no
-// inline script except the exact ones Nuxt wrote into this page: their sha256 hashes are taken
-// from the HTML itself just before it leaves. That is done in `beforeResponse` rather than
-// Nuxt's `render:response`, because the prerendered app shell (/shell, served as a static file
-// and kept by the service worker for offline use) never passes through the renderer.
+// inline script except the ones the build wrote: their sha256 hashes come from the prerendered
+// shell at build time (server/build/csp-hashes.ts), never from the HTML being sent, so a script
+// injected into a page does not run. The same policy covers SSR pages and the prerendered
+// /shell (served as a static file and kept by the service worker for offline use).
 // Styles keep 'unsafe-inline': Vue writes style attributes (heat map, progress bars), and an
 // injected style cannot run code.
 const POLICY: Record<string, string[]> = {
@@ -41,48 +39,15 @@ const STATIC_HEADERS = {
   'Cross-Origin-Opener-Policy': 'same-origin',
 }
 
-/** sha256 (base64) of every inline classic or module script; JSON data blocks never run. */
-export function inlineScriptHashes(html: string) {
-  const hashes = new Set<string>()
-  for (const m of html.matchAll(/<script\b([^>]*)>([\s\S]*?)<\/script\s*>/gi)) {
-    const attrs = m[1] ?? ''
-    if (/\ssrc\s*=/i.test(attrs)) continue
-    const type = attrs.match(/\stype\s*=\s*["']?([^"'\s>]+)/i)?.[1]?.toLowerCase()
-    if (type && !['module', 'text/javascript', 'application/javascript'].includes(type)) continue
-    hashes.add(createHash('sha256').update(m[2] ?? '', 'utf8').digest('base64'))
-  }
-  return [...hashes]
-}
-
-function htmlOf(event: H3Event, body: unknown): string | undefined {
-  const type = String(getResponseHeader(event, 'content-type') ?? '')
-  if (!type.includes('text/html')) return undefined
-  if (typeof body === 'string') return body
-  if (!(body instanceof Uint8Array)) return undefined
-  // A prerendered page may be sent precompressed (nitro compressPublicAssets).
-  const encoding = String(getResponseHeader(event, 'content-encoding') ?? '')
-  const bytes = Buffer.from(body)
-  if (encoding === 'br') return brotliDecompressSync(bytes).toString('utf8')
-  if (encoding === 'gzip') return gunzipSync(bytes).toString('utf8')
-  return encoding ? undefined : bytes.toString('utf8')
-}
-
 export default defineNitroPlugin((nitroApp) => {
   // The dev server's injected scripts change all the time; the policy is for built servers.
   if (import.meta.dev) return
 
+  const policy = contentSecurityPolicy(buildScriptHashes)
   nitroApp.hooks.hook('request', (event) => {
-    setResponseHeaders(event, { ...STATIC_HEADERS, 'Content-Security-Policy': contentSecurityPolicy() })
-  })
-
-  nitroApp.hooks.hook('beforeResponse', (event, response) => {
-    // A 304's headers replace the cached page's, whose policy holds that page's hashes.
-    if (getResponseStatus(event) === 304) {
-      removeResponseHeader(event, 'Content-Security-Policy')
-      return
-    }
-    const html = htmlOf(event, response?.body)
-    if (html === undefined) return
-    setResponseHeader(event, 'Content-Security-Policy', contentSecurityPolicy(inlineScriptHashes(html)))
+    setResponseHeaders(event, { ...STATIC_HEADERS, 'Content-Security-Policy': policy })
+    // Over HTTPS only: a shop serving plain http on its own network must not be locked out.
+    // No includeSubDomains: other hosts of the shop's domain may not have certificates.
+    if (requestIsHttps(event)) setResponseHeader(event, 'Strict-Transport-Security', 'max-age=31536000')
   })
 })

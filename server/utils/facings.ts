@@ -27,7 +27,9 @@ export async function recordFacing(db: DB, shopId: number, run: { id: string, ma
   const reading = thicknessStep ? state.steps.find(s => s.key === thicknessStep.key)?.value : null
   const unit = reading?.unit.trim().toLowerCase()
   const thicknessMm = reading && (unit === 'mm' || unit === 'in') ? (unit === 'in' ? reading.value * MM_PER_IN : reading.value) : null
-  await db.insert(tables.spoilboardFacings).ignore().values({
+  // Once per run: only the run's unique key is passed over (no INSERT IGNORE, which would also
+  // store an out-of-range number as a clipped one with just a warning).
+  await db.insert(tables.spoilboardFacings).values({
     shopId, machineId: run.machineId, runId: run.id, depthMm, thicknessMm, facedAt: new Date(state.finished.at),
-  })
+  }).onDuplicateKeyUpdate({ set: { runId: sql`run_id` } })
 }

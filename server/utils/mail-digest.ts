@@ -108,6 +108,14 @@ export async function enqueueDigestsWhenDue(now = new Date()) {
   if (doneForDay === day || now.getHours() < mailSettings().digestHour) return
   // Every shop
   const shops = await useDB().select({ id: tables.shops.id }).from(tables.shops)
-  for (const shop of shops) await enqueueShopDigest(shop.id, now)
+  for (const shop of shops) {
+    // One shop's digest that cannot be queued is an error in the log, never a shorter mail,
+    // and does not keep the other shops from theirs.
+    try { await enqueueShopDigest(shop.id, now) }
+    catch (error) {
+      if (transientDatabaseError(error)) throw error
+      console.error(`[jogwise] daily digest of shop ${shop.id} not queued:`, error instanceof Error ? error.message : error)
+    }
+  }
   doneForDay = day
 }

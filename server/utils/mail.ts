@@ -17,23 +17,41 @@ export interface MailInput {
   subject: string
   text: string
   html?: string | null
+  /** A sealed invite token: the link goes into the text only when the mail is sent. */
+  linkSecret?: string | null
 }
 
-/** Queues one mail; a duplicate dedupe key is not an error. Returns true when a row was added. */
+// MEDIUMTEXT holds 16 MB; a mail anywhere near that is a mistake to stop, not to cut short.
+const MAX_MAIL_BYTES = 8 * 1024 * 1024
+
+/**
+ * Queues one mail; a duplicate dedupe key is not an error. Returns true when a row was added.
+ * Anything else the database refuses is an error: no INSERT IGNORE, which would store a body
+ * cut short with only a warning.
+ */
 export async function enqueueMail(db: DB | Tx, mail: MailInput): Promise<boolean> {
-  // INSERT IGNORE on the unique dedupe_key
-  const [result] = await db.insert(tables.mailOutbox).ignore().values({
-    shopId: mail.shopId,
-    kind: mail.kind,
-    dedupeKey: mail.dedupeKey.slice(0, 160),
-    toAddress: mail.to,
-    subject: mail.subject.slice(0, 200),
-    textBody: mail.text,
-    htmlBody: mail.html ?? null,
-    // Set here rather than by the database so "due" is judged on one clock (the app's).
-    nextAttemptAt: new Date(),
-  }) as unknown as [{ affectedRows: number }]
-  return result.affectedRows === 1
+  const bytes = Buffer.byteLength(mail.text) + Buffer.byteLength(mail.html ?? '')
+  if (bytes > MAX_MAIL_BYTES) throw new Error(`The ${mail.kind} mail ${mail.dedupeKey} is ${bytes} bytes, over the outbox's ${MAX_MAIL_BYTES}.`)
+  // A new row; the dedupe key already there means it was queued before
+  try {
+    await db.insert(tables.mailOutbox).values({
+      shopId: mail.shopId,
+      kind: mail.kind,
+      dedupeKey: mail.dedupeKey.slice(0, 160),
+      toAddress: mail.to,
+      subject: mail.subject.slice(0, 200),
+      textBody: mail.text,
+      htmlBody: mail.html ?? null,
+      linkSecret: mail.linkSecret ?? null,
+      // Set here rather than by the database so "due" is judged on one clock (the app's).
+      nextAttemptAt: new Date(),
+    })
+    return true
+  }
+  catch (error) {
+    if (duplicateKey(error, 'mail_outbox_dedupe_unique')) return false
+    throw error
+  }
 }
 
 export interface MailSettings {
@@ -153,14 +171,17 @@ export async function sendDueMail(now = new Date()): Promise<{ sent: number, fai
     const messageId = outboxMessageId(row.id)
     try {
       if (!s.host) throw new Error('No SMTP server is set (NUXT_MAIL_SMTP_HOST).')
+      const token = row.linkSecret ? openInviteToken(row.linkSecret) : null
+      if (row.linkSecret && !token) throw new Error('The invite link cannot be opened with this server\'s secret; withdraw the invite and send a new one.')
+      const text = token ? row.textBody.replace(INVITE_LINK_PLACEHOLDER, inviteLink(token)) : row.textBody
       await smtp(s).sendMail({
-        from: s.from, to: row.toAddress, subject: row.subject, text: row.textBody,
+        from: s.from, to: row.toAddress, subject: row.subject, text,
         ...(row.htmlBody && { html: row.htmlBody }),
         messageId,
         headers: { 'X-Jogwise-Kind': row.kind },
       })
-      // Sent
-      await db.update(tables.mailOutbox).set({ status: 'sent', sentAt: new Date(), messageId, lastError: null })
+      // Sent: the sealed token is no longer needed
+      await db.update(tables.mailOutbox).set({ status: 'sent', sentAt: new Date(), messageId, lastError: null, linkSecret: null })
         .where(eq(tables.mailOutbox.id, id))
       sent++
     }

@@ -104,6 +104,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   const nonces: (typeof tables.signoffNonces.$inferInsert)[] = []
   const failedSignoffs: Parameters<typeof enqueueSignoffFailedAlerts>[2] = []
 
+  const sizes = await runSizes(runIds)
+
   const accepted: string[] = []
   const toInsert: RunEvent[] = []
   const newRuns = new Map<string, typeof tables.runs.$inferInsert>()
@@ -169,29 +171,33 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       }
       else event.verdict = { status: 'verified' }
     }
+    const overSize = sizeProblem(sizes, event)
+    if (overSize) { reject(event.id, overSize); continue }
     accepted.push(event.id)
     toInsert.push(event)
   }
 
-  // 4. Store, fold the touched runs again and keep their summary and flags current.
-  const touched = [...new Set(toInsert.map(e => e.runId))]
+  // 4. Store run by run, each in a savepoint of one transaction. An event counts as accepted only
+  // once its row is stored (or the same id already was); one MariaDB refuses, or one that makes
+  // its run unstorable, is rejected on its own with a reason and the rest go on.
+  const stored = new Set<string>()
   if (toInsert.length) {
     await db.transaction(async (tx) => {
-      if (newRuns.size) await tx.insert(tables.runs).ignore().values([...newRuns.values()])
       // Each seal's nonce, once. Two batches racing with one seal cannot both count it for
       // different events: the seal also names its event, whose id is unique.
-      if (nonces.length) await tx.insert(tables.signoffNonces).ignore().values(nonces)
-      await tx.insert(tables.runEvents).ignore().values(toInsert.map(e => ({
-        id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
-        at: new Date(e.at), payload: payloadOf(e),
-      })))
-      await refoldRuns(tx as unknown as DB, user.shopId, touched)
-      // Owner alerts for overrides stored by this batch, in the same transaction (mail outbox).
-      await enqueueOverrideAlerts(tx, user, toInsert.filter(e => e.verdict?.status !== 'refused'))
-      // The same alert for sign-offs whose signature failed its check
-      await enqueueSignoffFailedAlerts(tx, user, failedSignoffs)
+      if (nonces.length) await tx.insert(tables.signoffNonces).values(nonces).onDuplicateKeyUpdate({ set: { nonce: sql`nonce` } })
+      for (const runId of new Set(toInsert.map(e => e.runId))) {
+        const outcome = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId))
+        for (const id of outcome.stored) stored.add(id)
+        for (const r of outcome.rejected) reject(r.id, r.reason)
+      }
+      // The override's alert also goes out for stored sign-offs whose signature failed its check
+      await enqueueSignoffFailedAlerts(tx, user, failedSignoffs.filter(f => stored.has(f.event.id)))
     })
   }
+  const storedOrKnown = accepted.filter(id => stored.has(id) || !toInsert.some(e => e.id === id))
+  accepted.length = 0
+  accepted.push(...storedOrKnown)
 
   // 5. What the tablet does not have yet of the runs it sent or watches.
   const sentIds = new Set(request.events.map(e => e.id))
@@ -217,6 +223,131 @@ async function usedNonce(nonce: string) {
   return !!row
 }
 
+// A run is a procedure followed once: a few hundred events. The caps keep one run (and every
+// later read and sync of it) small; the last events of a run always fit in a reserve above them.
+export const MAX_RUN_EVENTS = 2000
+export const MAX_RUN_NOTES = 500
+const RUN_RESERVE = 20
+const CLOSING_TYPES = new Set(['run.finished', 'run.abandoned', 'signoff.given'])
+
+async function runSizes(runIds: string[]) {
+  const sizes = new Map<string, { events: number, notes: number }>()
+  if (!runIds.length) return sizes
+  // Events and notes stored per run
+  const rows = await useDB().select({
+    runId: tables.runEvents.runId,
+    events: count(),
+    notes: sql<number>`sum(${tables.runEvents.type} = 'note.added')`,
+  }).from(tables.runEvents).where(inArray(tables.runEvents.runId, runIds)).groupBy(tables.runEvents.runId)
+  for (const r of rows) sizes.set(r.runId, { events: Number(r.events), notes: Number(r.notes ?? 0) })
+  return sizes
+}
+
+/** Counts the event against its run's caps; the reason when the run is full. */
+function sizeProblem(sizes: Map<string, { events: number, notes: number }>, event: RunEvent): string | null {
+  const size = sizes.get(event.runId) ?? sizes.set(event.runId, { events: 0, notes: 0 }).get(event.runId)!
+  const cap = CLOSING_TYPES.has(event.type) ? MAX_RUN_EVENTS + RUN_RESERVE : MAX_RUN_EVENTS
+  if (size.events >= cap) return `This run already holds ${size.events} events, the most one run may hold; finish it and start a new run.`
+  if (event.type === 'note.added' && size.notes >= MAX_RUN_NOTES) return `This run already has ${MAX_RUN_NOTES} notes, the most one run may have; put longer remarks in one note.`
+  size.events++
+  if (event.type === 'note.added') size.notes++
+  return null
+}
+
+/** Why a run's new events could not be stored; the message goes back to the tablet. */
+class Unstorable extends Error {}
+
+// Lock waits, deadlocks and a lost connection pass: the batch is tried again later, whole.
+const transient = transientDatabaseError
+
+function unstorableReason(error: unknown) {
+  if (error instanceof Unstorable) return error.message
+  // Never MariaDB's own words (they may quote other rows); the event stays on the tablet.
+  return 'The server could not store this event (the database refused it); it stays on this tablet with this note.'
+}
+
+/**
+ * Stores one run's new events and folds the run again, all inside a savepoint. Only a duplicate
+ * id is passed over (the same event sent twice at once); any other refusal rejects that event.
+ * When the run cannot be stored as a whole, each event is tried alone, in order, so a good
+ * event is never held back by a bad one beside it.
+ */
+async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[]) {
+  const stored: string[] = []
+  const rejected: SyncRejection[] = []
+  const attempt = async (batch: RunEvent[]) => {
+    const done: RunEvent[] = []
+    await tx.transaction(async (sp) => {
+      const db = sp as unknown as DB
+      if (newRun) await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+      for (const e of batch) {
+        try {
+          await db.transaction(async (one) => {
+            // This event's row; a duplicate id changes nothing
+            await (one as unknown as DB).insert(tables.runEvents).values({
+              id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
+              at: new Date(e.at), payload: payloadOf(e),
+            }).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+          })
+          done.push(e)
+        }
+        catch (error) {
+          if (transient(error)) throw error
+          rejected.push({ id: e.id, reason: unstorableReason(error) })
+        }
+      }
+      if (!done.length) return
+      await refoldRuns(db, user.shopId, [done[0]!.runId])
+      // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
+      await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
+    })
+    stored.push(...done.map(e => e.id))
+  }
+  try {
+    await attempt(events)
+  }
+  catch (error) {
+    if (transient(error)) throw error
+    rejected.length = 0
+    if (events.length === 1) {
+      rejected.push({ id: events[0]!.id, reason: unstorableReason(error) })
+      return { stored, rejected }
+    }
+    for (const e of events) {
+      try { await attempt([e]) }
+      catch (one) {
+        if (transient(one)) throw one
+        rejected.push({ id: e.id, reason: unstorableReason(one) })
+      }
+    }
+  }
+  return { stored, rejected }
+}
+
+/**
+ * A run follows the version that is current when it starts. One started on an older version,
+ * or on a retired procedure, is refused, unless the tablet started it (its own clock) before
+ * the newer version was published or the procedure retired: it was offline and could not know.
+ */
+async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.started' }>, procedureId: number): Promise<string | null> {
+  const db = useDB()
+  const startedAt = Date.parse(event.at)
+  // The procedure and the versions published after this one
+  const [procedure] = await db.select({ retiredAt: tables.procedures.retiredAt }).from(tables.procedures)
+    .where(eq(tables.procedures.id, procedureId)).limit(1)
+  if (procedure?.retiredAt && procedure.retiredAt.getTime() <= startedAt) {
+    return 'This procedure was retired before the run started; it can no longer be run.'
+  }
+  const [newer] = await db.select({ version: tables.procedureVersions.version, createdAt: tables.procedureVersions.createdAt })
+    .from(tables.procedureVersions)
+    .where(and(eq(tables.procedureVersions.procedureId, procedureId), gt(tables.procedureVersions.id, event.procedureVersionId)))
+    .orderBy(asc(tables.procedureVersions.createdAt)).limit(1)
+  if (newer && newer.createdAt.getTime() <= startedAt) {
+    return `Version ${newer.version} of this procedure was published before the run started; start the run again on the current version.`
+  }
+  return null
+}
+
 /** Is this person allowed to start this run here? Returns the reason when not. */
 async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>): Promise<string | null> {
   const db = useDB()
@@ -229,6 +360,8 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
   const [version] = await db.select({ procedureId: tables.procedureVersions.procedureId }).from(tables.procedureVersions)
     .where(and(eq(tables.procedureVersions.id, event.procedureVersionId), eq(tables.procedureVersions.shopId, user.shopId))).limit(1)
   if (!version) return 'No such procedure version in this shop.'
+  const outdated = await outdatedVersionProblem(event, version.procedureId)
+  if (outdated) return outdated
   if (event.mode === 'solo') {
     // Is this person qualified to run this procedure unsupervised?
     const [q] = await db.select({ id: tables.qualifications.id }).from(tables.qualifications)
@@ -240,6 +373,18 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
     }
   }
   return null
+}
+
+// Derived numbers (readings in mm, spindle minutes) must be finite and of a size a DOUBLE column
+// and the Ledger can hold; the API bounds make this unreachable, so it is a last guard.
+const MAX_DERIVED = 1e15 * 60
+function refuseUnstorableNumbers(value: unknown, depth = 0): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value) || Math.abs(value) > MAX_DERIVED) throw new Unstorable('A number in this run is too large to store; check the reading and enter it again.')
+  }
+  else if (value && typeof value === 'object' && depth < 12) {
+    for (const v of Object.values(value)) refuseUnstorableNumbers(v, depth + 1)
+  }
 }
 
 /** Folds runs from their stored events and writes back the run summary and event flags. */
@@ -260,6 +405,7 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
     // No roles passed: overrides and sign-offs were authorized when they were merged, and a
     // later role change must not turn yesterday's valid override into a flagged one.
     const state = foldRun(steps, stored.map(toRunEvent))
+    refuseUnstorableNumbers(state)
     const procedureId = versions.get(run.procedureVersionId)?.procedureId
     if (procedureId !== undefined) folded.push({ run, procedureId, state, steps })
     const flagById = new Map(state.flagged.map(f => [f.event.id, f.code]))

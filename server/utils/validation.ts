@@ -1,6 +1,7 @@
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
 import { toIssues } from '#shared/schemas/issues'
+import { checkedInput } from '#shared/schemas/input'
 
 // Every bad input answers 400 with `data.issues: [{ path, message }]` naming the field and the
 // reason; the first issue is repeated in `message` so a plain client still says something useful.
@@ -14,7 +15,8 @@ function invalid(issues: { path: string, message: string }[]) {
   })
 }
 
-export async function readValid<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
+/** `skip`: top-level keys whose items the route checks one by one (see checkedInput). */
+export async function readValid<S extends z.ZodType>(event: H3Event, schema: S, skip: readonly string[] = []): Promise<z.output<S>> {
   let body: unknown
   try {
     body = await readBody(event)
@@ -23,15 +25,15 @@ export async function readValid<S extends z.ZodType>(event: H3Event, schema: S):
     throw invalid([{ path: '', message: 'The request body is not valid JSON.' }])
   }
   if (body === undefined || body === null || body === '') throw invalid([{ path: '', message: 'The request needs a JSON body.' }])
-  const parsed = schema.safeParse(body)
+  const parsed = checkedInput(schema, skip).safeParse(body)
   if (!parsed.success) throw invalid(toIssues(parsed.error))
-  return parsed.data
+  return parsed.data as z.output<S>
 }
 
 export function queryValid<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
-  const parsed = schema.safeParse(getQuery(event))
+  const parsed = checkedInput(schema).safeParse(getQuery(event))
   if (!parsed.success) throw invalid(toIssues(parsed.error))
-  return parsed.data
+  return parsed.data as z.output<S>
 }
 
 export function paramsValid<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {

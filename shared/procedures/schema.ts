@@ -70,9 +70,12 @@ function text(label: string, rule: TextRule) {
     })
 }
 
+// The same range a reading may have (MAX_READING in shared/runs/events.ts, not imported here
+// to keep the procedure schema free of the run code).
+const MAX_LIMIT = 1_000_000_000
 const finite = (label: string) => z.number({
   error: iss => typeof iss.input === 'number' ? `${label} must be a finite number.` : `${label} must be a number.`,
-})
+}).min(-MAX_LIMIT, `${label} must be at least -${MAX_LIMIT}.`).max(MAX_LIMIT, `${label} must be at most ${MAX_LIMIT}.`)
 
 const base = {
   key: z.string({ error: iss => iss.input === undefined ? 'Step key is required.' : 'Step key must be text.' })

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { v7 as uuidv7 } from 'uuid'
 import { toIssues, type FieldIssue } from '../schemas/issues'
+import { checkedInput, MAX_ID } from '../schemas/input'
 import { reasonProblem } from '../procedures/text'
 import type { Role } from '../types/roles'
 import { MAX_SEAL_LENGTH } from './signoff-seal'
@@ -41,6 +42,7 @@ const str = (label: string, max: number) =>
 
 const positiveId = (label: string) =>
   z.number({ error: `${label} must be a number.` }).int(`${label} must be a whole number.`).positive(`${label} must be a positive number.`)
+    .max(MAX_ID, `${label} is not a known id.`)
 
 // A reason that goes on the record: an override, an abandoned run.
 const reason = (label: string) => str(label, 1000).superRefine((value, ctx) => {
@@ -59,6 +61,10 @@ export const VerdictSchema = z.discriminatedUnion('status', [
   z.object({ status: z.literal('refused'), code: z.enum(VERDICT_CODES), reason: z.string().max(1000) }),
 ], { error: 'A verdict is set by the server only.' })
 export type Verdict = z.infer<typeof VerdictSchema>
+
+// No gauge, meter or hour counter at the machine reads beyond this; the bound keeps sums
+// and unit conversions of readings (spindle time, thickness) far from overflowing.
+export const MAX_READING = 1_000_000_000
 
 const base = {
   id: z.uuidv7({ error: 'Event id must be a UUIDv7 string made on the device.' }),
@@ -85,7 +91,8 @@ export const ValueRecordedSchema = z.object({
   ...base,
   type: z.literal('value.recorded'),
   stepKey,
-  value: z.number({ error: iss => typeof iss.input === 'number' ? 'Value must be a finite number.' : 'Value must be a number.' }),
+  value: z.number({ error: iss => typeof iss.input === 'number' ? 'Value must be a finite number.' : 'Value must be a number.' })
+    .min(-MAX_READING, `Value must be at least -${MAX_READING}.`).max(MAX_READING, `Value must be at most ${MAX_READING}.`),
   unit: str('Unit', 16),
   // Optional here because an in-range reading needs none; the fold decides whether an
   // out-of-range reading's reason is good enough (reasonProblem).
@@ -188,9 +195,11 @@ export type RunEventPayload<T extends RunEventType> = Omit<RunEventOf<T>, BaseKe
 
 export type RunEventResult = { ok: true, event: RunEvent } | { ok: false, issues: FieldIssue[] }
 
+const checkedRunEvent = checkedInput(RunEventSchema)
+
 /** Validates one event, e.g. each element of a sync batch. */
 export function parseRunEvent(input: unknown): RunEventResult {
-  const parsed = RunEventSchema.safeParse(input)
+  const parsed = checkedRunEvent.safeParse(input)
   return parsed.success ? { ok: true, event: parsed.data } : { ok: false, issues: toIssues(parsed.error) }
 }
 
@@ -230,7 +239,7 @@ type PayloadArgs<T extends RunEventType> = Record<string, never> extends RunEven
  */
 export function makeEvent<T extends RunEventType>(ctx: EventContext, type: T, ...args: PayloadArgs<T>): RunEventOf<T> {
   const at = ctx.at === undefined ? new Date().toISOString() : typeof ctx.at === 'string' ? ctx.at : ctx.at.toISOString()
-  const parsed = RunEventSchema.safeParse({
+  const parsed = checkedRunEvent.safeParse({
     ...(args[0] ?? {}),
     id: ctx.id ?? newEventId(),
     runId: ctx.runId,

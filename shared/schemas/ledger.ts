@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { MAX_ID } from './input'
 import { LEDGER_ENTRY_KINDS, type LedgerEntryKind } from '../runs/ledger'
 
 // Filters of the Ledger (table, CSV export and run list), one copy for the screen and the API.
@@ -14,7 +15,7 @@ export const LEDGER_KIND_LABELS: Record<LedgerEntryKind, string> = {
 export const LEDGER_MAX_PAGE_SIZE = 100
 
 const id = (label: string) => z.coerce.number({ error: `${label} must be a number.` })
-  .int(`${label} must be a whole number.`).positive(`${label} must be a positive number.`).optional()
+  .int(`${label} must be a whole number.`).positive(`${label} must be a positive number.`).max(MAX_ID, `${label} is not a known id.`).optional()
 
 // A day (YYYY-MM-DD, read as UTC) or a full ISO date and time with its offset.
 const DAY = /^\d{4}-\d{2}-\d{2}$/

@@ -1,9 +1,10 @@
 import { z } from 'zod'
+import { MAX_ID } from './input'
 
 // A maintenance interval: how often a procedure must be run on a machine (or on every machine
 // in service when machineId is null), by calendar days, by spindle hours, or both.
 
-const id = (label: string) => z.number({ error: `Pick a ${label}.` }).int(`Pick a ${label}.`).positive(`Pick a ${label}.`)
+const id = (label: string) => z.number({ error: `Pick a ${label}.` }).int(`Pick a ${label}.`).positive(`Pick a ${label}.`).max(MAX_ID, `Pick a ${label}.`)
 const everyDays = z.number({ error: 'Days must be a number.' }).int('Days must be a whole number.')
   .min(1, 'Days must be at least 1.').max(3650, 'Days must be at most 3650 (ten years).').nullable()
 const everySpindleHours = z.number({ error: 'Spindle hours must be a number.' }).finite('Spindle hours must be a number.')

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { MAX_SEAL_LENGTH } from '../runs/signoff-seal'
+import { MAX_ID } from './input'
 
 export const MAX_SYNC_EVENTS = 500
 
@@ -9,7 +10,7 @@ export const MAX_SYNC_EVENTS = 500
  */
 export const SyncRequestSchema = z.object({
   deviceId: z.string({ error: 'deviceId must be text.' }).trim().min(1, 'deviceId is required.').max(64, 'deviceId must be at most 64 characters.'),
-  since: z.number({ error: 'since must be a number.' }).int('since must be a whole number.').nonnegative('since must not be negative.').optional(),
+  since: z.number({ error: 'since must be a number.' }).int('since must be a whole number.').nonnegative('since must not be negative.').max(MAX_ID, 'since is beyond any stored event.').optional(),
   watch: z.array(z.uuid({ error: 'watch must list run ids (UUIDs).' }), { error: 'watch must be a list of run ids.' })
     .max(50, 'watch may list at most 50 runs.').optional(),
   events: z.array(z.record(z.string(), z.unknown(), { error: 'Each event must be an object.' }), { error: 'events must be a list.' })

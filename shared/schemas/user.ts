@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { MAX_ID } from './input'
 import { ROLES } from '../types/roles'
 
 const name = z.string({ error: 'Enter a name.' }).trim().min(1, 'Enter a name.').max(120, 'Keep the name under 120 characters.')
@@ -22,4 +23,4 @@ export const UserPatchSchema = z.object({
 }).strict().refine(v => Object.keys(v).length > 0, { message: 'Nothing to change.' })
 export type UserPatchInput = z.infer<typeof UserPatchSchema>
 
-export const IdParamSchema = z.object({ id: z.coerce.number().int().positive() })
+export const IdParamSchema = z.object({ id: z.coerce.number().int().positive().max(MAX_ID) })

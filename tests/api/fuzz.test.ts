@@ -68,6 +68,13 @@ const body = fc.oneof(
   { weight: 1, arbitrary: fc.constantFrom('{', '{"a":', '{"a":NaN}', '{"a":Infinity}', '{"a":1e999,"fuzzUnknown":1}', '[1,]', 'undefined', '\u0000', '{"a":"\\ud800"', 'nul', '{"__proto__":}') },
 )
 
+// Issue 18 shapes. A lone UTF-16 surrogate (Unicode section 3.9, D91: ill-formed) somewhere in
+// a text, and finite numbers far beyond any field's range (up to Number.MAX_VALUE, IEEE 754).
+const loneSurrogate = fc.tuple(fc.string({ maxLength: 12 }), fc.integer({ min: 0xD800, max: 0xDFFF }), fc.string({ maxLength: 12 }))
+  .map(([a, code, b]) => `${a}${String.fromCharCode(code)}${code < 0xDC00 ? 'x' : ''}${b}`)
+const hugeNumber = fc.oneof(fc.double({ min: 1e16, max: Number.MAX_VALUE, noNaN: true }), fc.constantFrom(3e303, 7e306, -1e300, Number.MAX_VALUE))
+const TOP_FIELDS = FIELD_NAMES.filter(n => n !== 'events')
+
 /** Percent-encoding that also carries lone surrogates (as the bytes a broken client sends). */
 function enc(s: string) {
   try { return encodeURIComponent(s) }
@@ -187,6 +194,50 @@ describe('bad input never gets a 5xx and never changes the database', () => {
       }), { numRuns: RUNS, seed: SEED })
     })
 
+    it('answers 400 naming the field for a lone surrogate or a huge finite number anywhere', async () => {
+      const path = realPath(route.path)
+      const poisoned = fc.tuple(fc.constantFrom(...TOP_FIELDS), fc.oneof(loneSurrogate, hugeNumber), fc.boolean())
+      await fc.assert(fc.asyncProperty(poisoned, async ([field, bad, nested]) => {
+        perRoute[key] = (perRoute[key] ?? 0) + 1
+        const raw = objectText([[field, nested ? { inner: [bad] } : bad], ['fuzzUnknown', 1]])
+        const res = await send(route.method, path, raw)
+        expectClear4xx(`${key} ${raw.slice(0, 120)}`, res)
+        expect(res.status, `${key} ${raw.slice(0, 120)}`).toBe(400)
+        expect(res.json.data.issues[0].path, `${key} ${raw.slice(0, 120)}`).toBe(nested ? `${field}.inner.0` : field)
+        expect(res.json.data.issues[0].message).toMatch(typeof bad === 'string' ? /surrogate/ : /number must be between/)
+      }), { numRuns: RUNS, seed: SEED })
+    })
+
+    it('answers a chunked body (no Content-Length) like a sized one: 4xx under 2 MB, 413 past it', async () => {
+      const path = realPath(route.path)
+      for (const [name, size] of [['small', 100], ['just under 2 MB', 2 * MB - 64], ['past 2 MB', 3 * MB]] as const) {
+        perRoute[key] = (perRoute[key] ?? 0) + 1
+        tried++
+        const payload = new TextEncoder().encode(objectText([['fuzzUnknown', 'x'.repeat(size)]]))
+        const stream = new ReadableStream<Uint8Array>({
+          start(controller) {
+            for (let i = 0; i < payload.length; i += 64 * 1024) controller.enqueue(payload.subarray(i, i + 64 * 1024))
+            controller.close()
+          },
+        })
+        let res: Response
+        try {
+          res = await fetch(BASE_URL + path, { method: route.method, headers: { 'cookie': owner, 'accept': 'application/json', 'content-type': 'application/json' }, body: stream, duplex: 'half' } as RequestInit)
+        }
+        catch (error) {
+          // The server may close the socket after its 413 while the rest is still being sent.
+          expect(name, String(error)).toBe('past 2 MB')
+          continue
+        }
+        const text = await res.text()
+        let json: any
+        try { json = JSON.parse(text) }
+        catch {}
+        expectClear4xx(`${key} chunked ${name}`, { status: res.status, text, json })
+        if (name === 'past 2 MB') expect(res.status).toBe(413)
+      }
+    }, 60_000)
+
     it('answers 4xx for deep nesting, bodies near and past 2 MB, and bytes that are not UTF-8', async () => {
       const path = realPath(route.path)
       const cases: [string, string | Buffer][] = [
@@ -238,6 +289,27 @@ describe('bad input never gets a 5xx and never changes the database', () => {
         expectClear4xx(`${key} ${path.slice(0, 120)}`, await send(route.method, path, route.method === 'GET' ? undefined : '{"fuzzUnknown":1}'))
       }), { numRuns: RUNS, seed: SEED })
     })
+  })
+
+  it('/api/sync refuses each poisoned event on its own, with a reason, and stores none of them', async () => {
+    const me = (await call('GET', '/api/me', { cookie: owner })).body.user
+    const event = fc.tuple(fc.constantFrom('note.added', 'value.recorded', 'hold.overridden', 'run.abandoned'), fc.oneof(loneSurrogate, hugeNumber))
+      .map(([type, bad]) => ({
+        id: uuidv7(), runId: ids.runs, type, at: new Date().toISOString(), actorId: me.id, deviceId: 'fuzz',
+        ...(type === 'value.recorded' ? { stepKey: 'fuzz', unit: 'mm', value: typeof bad === 'number' ? bad : 1, reason: typeof bad === 'string' ? bad : undefined } : {}),
+        ...(type === 'note.added' ? { text: typeof bad === 'string' ? bad : 'Fine text', extra: typeof bad === 'number' ? bad : undefined } : {}),
+        ...(type === 'hold.overridden' ? { stepKey: 'fuzz', reason: typeof bad === 'string' ? `The guard was checked by hand ${bad}` : 'The guard was checked by hand twice.', weight: typeof bad === 'number' ? bad : undefined } : {}),
+        ...(type === 'run.abandoned' ? { reason: typeof bad === 'string' ? `Stopped for the day ${bad}` : 'Stopped for the day.', size: typeof bad === 'number' ? bad : undefined } : {}),
+      }))
+    await fc.assert(fc.asyncProperty(fc.array(event, { minLength: 1, maxLength: 5 }), async (events) => {
+      perRoute['POST /api/sync'] = (perRoute['POST /api/sync'] ?? 0) + 1
+      tried++
+      const res = await call('POST', '/api/sync', { cookie: owner, body: { deviceId: 'fuzz', events } })
+      expect(res.status, res.text.slice(0, 300)).toBe(200)
+      expect(res.body.accepted).toEqual([])
+      expect(res.body.rejected.map((r: any) => r.id).sort()).toEqual(events.map(e => e.id).sort())
+      for (const r of res.body.rejected) expect(r.reason.length).toBeGreaterThan(5)
+    }), { numRuns: RUNS, seed: SEED })
   })
 
   it('left every table exactly as it was', async () => {

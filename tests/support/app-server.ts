@@ -14,7 +14,7 @@ export function freePort() {
   })
 }
 
-export interface AppServer { url: string, log: () => string, stop: () => Promise<void> }
+export interface AppServer { url: string, pid: number, log: () => string, stop: () => Promise<void> }
 
 export async function startApp(env: Record<string, string>): Promise<AppServer> {
   const port = await freePort()
@@ -28,6 +28,7 @@ export async function startApp(env: Record<string, string>): Promise<AppServer> 
   child.stderr!.on('data', d => (output += d))
   const server: AppServer = {
     url,
+    pid: child.pid!,
     log: () => output,
     stop: () => new Promise<void>((resolve) => {
       if (child.exitCode !== null) return resolve()

@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
     // The invite with this token's hash, locked
     const [invite] = await tx.select().from(tables.invites)
       .where(eq(tables.invites.tokenHash, hashInviteToken(body.token))).limit(1).for('update')
-    assertInviteUsable(invite)
+    assertInviteUsable(invite, invite && await inviterOf(tx, invite.invitedBy))
     const inv = invite!
     // Has the address become someone's sign-in since the invite was sent?
     const [taken] = await tx.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, inv.email)).limit(1)

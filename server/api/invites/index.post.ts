@@ -8,9 +8,12 @@ export default defineEventHandler(async (event) => {
   const db = useDB()
   const conflict = (message: string) => createError({ statusCode: 409, statusMessage: 'Conflict', message: `email: ${message}`, data: { issues: [{ path: 'email', message }] } })
 
-  // Is the e-mail address already someone's sign-in (in any shop)?
-  const [taken] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, body.email)).limit(1)
-  if (taken) throw conflict('Someone already signs in with that e-mail address.')
+  // Is the e-mail address already someone's sign-in, and in which shop?
+  const [taken] = await db.select({ shopId: tables.users.shopId }).from(tables.users).where(eq(tables.users.email, body.email)).limit(1)
+  if (taken?.shopId === owner.shopId) throw conflict('Someone in your crew already signs in with that e-mail address.')
+  // Another shop's address gets the same answer as a new one (an owner must not learn who uses
+  // Jogwise elsewhere); its mail tells the address's owner instead, without a link.
+  const elsewhere = !!taken
   // A pending invite of this shop for the same address
   const [pending] = await db.select({ id: tables.invites.id }).from(tables.invites).where(and(
     eq(tables.invites.shopId, owner.shopId), eq(tables.invites.email, body.email),
@@ -22,24 +25,37 @@ export default defineEventHandler(async (event) => {
   const expiresAt = new Date(Date.now() + mailSettings().inviteTtlHours * 3600_000)
   // The shop's name, for the mail
   const [shop] = await db.select({ name: tables.shops.name }).from(tables.shops).where(eq(tables.shops.id, owner.shopId)).limit(1)
-  const link = `${siteUrl()}/join/${token}`
   const id = await db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(tables.invites).values({
       shopId: owner.shopId, email: body.email, role: body.role, tokenHash: hash, invitedBy: owner.id, expiresAt,
     }).$returningId() as [{ id: number }]
+    const subject = `${owner.name} invites you to ${shop?.name ?? 'a shop'} on Jogwise`
+    if (elsewhere) {
+      await enqueueMail(tx, {
+        shopId: owner.shopId, kind: 'invite', dedupeKey: `invite:${id}`, to: body.email, subject,
+        text: [
+          `${owner.name} tried to invite you to ${shop?.name ?? 'their shop'} on Jogwise.`,
+          'This address already signs in to Jogwise, and one address belongs to one shop, so there is no link to open.',
+          'To join them, give them another e-mail address. If you did not expect this, ignore this e-mail.',
+        ].join('\n\n'),
+      })
+      await recordAudit(tx, owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
+      return id
+    }
     await enqueueMail(tx, {
-      shopId: owner.shopId, kind: 'invite', dedupeKey: `invite:${id}`, to: body.email,
-      subject: `${owner.name} invites you to ${shop?.name ?? 'a shop'} on Jogwise`,
+      shopId: owner.shopId, kind: 'invite', dedupeKey: `invite:${id}`, to: body.email, subject,
       text: [
         `${owner.name} invites you to join ${shop?.name ?? 'their shop'} on Jogwise as ${ROLE_LABELS[body.role].toLowerCase()}.`,
-        `Open this link to choose your name and password:\n${link}`,
+        // The link itself is sealed beside the row and put in only as the mail is sent.
+        `Open this link to choose your name and password:\n${INVITE_LINK_PLACEHOLDER}`,
         `The link works once and until ${expiresAt.toISOString().replace('T', ' ').slice(0, 16)} UTC.`,
         'If you did not expect this, ignore this e-mail.',
       ].join('\n\n'),
+      linkSecret: sealInviteToken(token),
     })
+    await recordAudit(tx, owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
     return id
   })
-  await recordAudit(owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
   setResponseStatus(event, 201)
   return { id, email: body.email, role: body.role, status: 'pending' as const, expiresAt: expiresAt.toISOString() }
 })

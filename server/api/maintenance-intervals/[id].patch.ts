@@ -14,8 +14,10 @@ export default defineEventHandler(async (event) => {
   }
   await checkIntervalTargets(owner, body)
   // Change the interval, only within the owner's shop
-  await useDB().update(tables.maintenanceIntervals).set(body)
-    .where(and(eq(tables.maintenanceIntervals.id, id), eq(tables.maintenanceIntervals.shopId, owner.shopId)))
-  await recordAudit(owner, 'interval.changed', 'maintenance_interval', id, { fields: Object.keys(body) })
+  await useDB().transaction(async (tx) => {
+    await tx.update(tables.maintenanceIntervals).set(body)
+      .where(and(eq(tables.maintenanceIntervals.id, id), eq(tables.maintenanceIntervals.shopId, owner.shopId)))
+    await recordAudit(tx, owner, 'interval.changed', 'maintenance_interval', id, { fields: Object.keys(body) })
+  })
   return findShopInterval(owner, id)
 })

@@ -1,7 +1,8 @@
 import { z } from 'zod'
+import { MAX_ID } from '#shared/schemas/input'
 import { planSurfacing, surfacingGcode, upgradeStoredInput } from '#shared/machining'
 
-const ParamsSchema = z.object({ id: z.coerce.number().int().positive() })
+const ParamsSchema = z.object({ id: z.coerce.number().int().positive().max(MAX_ID) })
 
 // A stored plan with its program written again from the stored input, so a fix to the G-code
 // writer reaches old plans too. The travel check already passed when it was stored.

@@ -1,8 +1,9 @@
 import { z } from 'zod'
+import { MAX_ID } from '#shared/schemas/input'
 
 const BodySchema = z.object({
-  userId: z.number({ error: 'userId must be a number.' }).int().positive('userId must be a positive number.'),
-  procedureId: z.number({ error: 'procedureId must be a number.' }).int().positive('procedureId must be a positive number.'),
+  userId: z.number({ error: 'userId must be a number.' }).int().positive('userId must be a positive number.').max(MAX_ID, 'userId is not a known id.'),
+  procedureId: z.number({ error: 'procedureId must be a number.' }).int().positive('procedureId must be a positive number.').max(MAX_ID, 'procedureId is not a known id.'),
   qualified: z.boolean({ error: 'qualified must be true or false.' }),
 }).strict()
 
@@ -19,12 +20,16 @@ export default defineEventHandler(async (event) => {
   if (body.qualified && person.role === 'trainee') {
     throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'userId: a trainee always runs guided; change their role to operator first.', data: { issues: [{ path: 'userId', message: 'A trainee always runs guided; change their role to operator first.' }] } })
   }
-  if (body.qualified) {
-    await db.insert(tables.qualifications).ignore().values({ shopId: owner.shopId, userId: body.userId, procedureId: body.procedureId, grantedBy: owner.id })
-  }
-  else {
-    await db.delete(tables.qualifications).where(and(eq(tables.qualifications.shopId, owner.shopId), eq(tables.qualifications.userId, body.userId), eq(tables.qualifications.procedureId, body.procedureId)))
-  }
-  await recordAudit(owner, body.qualified ? 'qualification.granted' : 'qualification.removed', 'user', body.userId, { procedureId: body.procedureId })
+  await db.transaction(async (tx) => {
+    if (body.qualified) {
+      // Granting twice changes nothing (the pair is unique)
+      await tx.insert(tables.qualifications).values({ shopId: owner.shopId, userId: body.userId, procedureId: body.procedureId, grantedBy: owner.id })
+        .onDuplicateKeyUpdate({ set: { userId: sql`user_id` } })
+    }
+    else {
+      await tx.delete(tables.qualifications).where(and(eq(tables.qualifications.shopId, owner.shopId), eq(tables.qualifications.userId, body.userId), eq(tables.qualifications.procedureId, body.procedureId)))
+    }
+    await recordAudit(tx, owner, body.qualified ? 'qualification.granted' : 'qualification.removed', 'user', body.userId, { procedureId: body.procedureId })
+  })
   return body
 })

@@ -18,12 +18,15 @@ export default defineEventHandler(async (event) => {
   if (body.role !== undefined) changes.role = body.role
   if (body.active !== undefined) changes.active = body.active
   if (body.pin !== undefined) changes.pinHash = body.pin ? await hashPassword(body.pin) : null
-  await db.update(tables.users).set(changes).where(and(eq(tables.users.id, id), eq(tables.users.shopId, owner.shopId)))
-  await recordAudit(owner, 'user.changed', 'user', id, {
-    ...(body.role !== undefined && { role: { from: target.role, to: body.role } }),
-    ...(body.active !== undefined && { active: body.active }),
-    ...(body.name !== undefined && { name: body.name }),
-    ...(body.pin !== undefined && { pin: body.pin ? 'set' : 'cleared' }),
+  // The change and its audit line, together
+  await db.transaction(async (tx) => {
+    await tx.update(tables.users).set(changes).where(and(eq(tables.users.id, id), eq(tables.users.shopId, owner.shopId)))
+    await recordAudit(tx, owner, 'user.changed', 'user', id, {
+      ...(body.role !== undefined && { role: { from: target.role, to: body.role } }),
+      ...(body.active !== undefined && { active: body.active }),
+      ...(body.name !== undefined && { name: body.name }),
+      ...(body.pin !== undefined && { pin: body.pin ? 'set' : 'cleared' }),
+    })
   })
   return { id, name: changes.name ?? target.name, email: target.email, role: changes.role ?? target.role, active: changes.active ?? target.active }
 })

@@ -5,20 +5,23 @@ export default defineEventHandler(async (event) => {
   const body = await readValid(event, UserCreateSchema)
   const db = useDB()
 
-  // Is the e-mail address already taken (in any shop)?
+  // Is the e-mail address already taken (in any shop)? One answer for every shop, so an owner
+  // learns nothing about who signs in elsewhere; an invite (neutral too) is the other way in.
   const [taken] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, body.email)).limit(1)
   if (taken) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'email: someone already uses that e-mail address.', data: { issues: [{ path: 'email', message: 'Someone already uses that e-mail address.' }] } })
+    const message = 'That e-mail address cannot be used for a new sign-in. Use another address, or send an invite instead.'
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `email: ${message}`, data: { issues: [{ path: 'email', message }] } })
   }
-  const [{ id }] = await db.insert(tables.users).values({
-    shopId: owner.shopId,
-    name: body.name,
-    email: body.email,
-    role: body.role,
-    passwordHash: await hashPassword(body.password),
-    pinHash: body.pin ? await hashPassword(body.pin) : null,
-  }).$returningId() as [{ id: number }]
-  await recordAudit(owner, 'user.created', 'user', id, { role: body.role })
+  const passwordHash = await hashPassword(body.password)
+  const pinHash = body.pin ? await hashPassword(body.pin) : null
+  // The new person and the audit line, together
+  const id = await db.transaction(async (tx) => {
+    const [{ id }] = await tx.insert(tables.users).values({
+      shopId: owner.shopId, name: body.name, email: body.email, role: body.role, passwordHash, pinHash,
+    }).$returningId() as [{ id: number }]
+    await recordAudit(tx, owner, 'user.created', 'user', id, { role: body.role })
+    return id
+  })
   setResponseStatus(event, 201)
   return { id, name: body.name, email: body.email, role: body.role, active: true }
 })

@@ -15,9 +15,11 @@ export default defineEventHandler(async (event) => {
   }
   if (!row.revokedAt) {
     // Stamp revoked_at unless it was accepted meanwhile
-    await db.update(tables.invites).set({ revokedAt: new Date() })
-      .where(and(eq(tables.invites.id, id), isNull(tables.invites.acceptedAt), isNull(tables.invites.revokedAt)))
-    await recordAudit(owner, 'invite.revoked', 'invite', id, { email: row.email })
+    await db.transaction(async (tx) => {
+      await tx.update(tables.invites).set({ revokedAt: new Date() })
+        .where(and(eq(tables.invites.id, id), isNull(tables.invites.acceptedAt), isNull(tables.invites.revokedAt)))
+      await recordAudit(tx, owner, 'invite.revoked', 'invite', id, { email: row.email })
+    })
   }
   const [now] = await db.select().from(tables.invites).where(eq(tables.invites.id, id)).limit(1)
   return { id, email: now!.email, role: now!.role, status: inviteStatus(now!) }

@@ -6,8 +6,10 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'owner', 'trainer')
   await findShopProcedure(user, id)
   // Mark it retired, only in this shop
-  await useDB().update(tables.procedures).set({ retiredAt: new Date() })
-    .where(and(eq(tables.procedures.id, id), eq(tables.procedures.shopId, user.shopId)))
-  await recordAudit(user, 'procedure.retired', 'procedure', id)
+  await useDB().transaction(async (tx) => {
+    await tx.update(tables.procedures).set({ retiredAt: new Date() })
+      .where(and(eq(tables.procedures.id, id), eq(tables.procedures.shopId, user.shopId)))
+    await recordAudit(tx, user, 'procedure.retired', 'procedure', id)
+  })
   return { id, retired: true }
 })
