@@ -143,7 +143,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
         id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
         at: new Date(e.at), payload: payloadOf(e),
       })))
-      await refoldRuns(tx as unknown as DB, user.shopId, touched)
+      await refoldRuns(tx as unknown as DB, user.shopId, touched, toInsert.map(e => e.id))
       // Owner alerts for overrides stored by this batch, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(tx, user, toInsert)
     })
@@ -192,7 +192,8 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
 }
 
 /** Folds runs from their stored events and writes back the run summary and event flags. */
-export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
+// arrivedIds: the events this batch stored, so the Ledger can say which of them changed the record.
+export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = []) {
   if (!runIds.length) return
   const runs = await db.select({ id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId })
     .from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
@@ -230,5 +231,5 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
     }).where(eq(tables.runs.id, run.id))
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
-  await writeRunLedger(db, shopId, folded)
+  await writeRunLedger(db, shopId, folded, arrivedIds)
 }
