@@ -65,6 +65,7 @@ const ROUTES: Record<string, Row> = {
   // scripts/test.sh runs the fake mail server, so the caught-mail list is on.
   'GET /api/mail/caught': { allowed: ['owner'], probe: () => ({ path: '/api/mail/caught' }), okStatus: 200 },
   'POST /api/mail/digest': { allowed: ['owner'], probe: () => ({ path: '/api/mail/digest' }), okStatus: 200 },
+  'GET /api/runs/[id]/audit': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/audit` }), okStatus: 200, crossShop: true },
   'POST /api/runs/[id]/signoff-proof': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/signoff-proof`, body: {} }), okStatus: 400, crossShop: true },
   'GET /api/ledger': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/ledger' }), okStatus: 200 },
   // A bad filter, so an allowed role gets a JSON 400 rather than a CSV download.
