@@ -121,7 +121,7 @@ export function localTime(iso: string | null, timeZone: string): string {
 export function ledgerCsvColumns(timeZone: string) {
   const cols: { header: string, value: (r: LedgerRow) => Cell }[] = [
     { header: 'When (UTC)', value: r => r.at },
-    { header: `When (${timeZone})`, value: r => localTime(r.at, timeZone) },
+    { header: `When (local, ${timeZone})`, value: r => localTime(r.at, timeZone) },
     { header: 'Received (UTC)', value: r => r.receivedAt },
     { header: 'Kind', value: r => LEDGER_KIND_LABELS[r.kind] ?? r.kind },
     { header: 'Counted', value: r => (r.counted ? 'yes' : 'no') },
