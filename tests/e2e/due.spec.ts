@@ -49,14 +49,14 @@ test('the owner adds an interval by days and one by spindle hours; both show on 
   const requests: string[] = []
   page.on('request', r => { if (r.url().endsWith('/api/maintenance-intervals') && r.method() === 'POST') requests.push(r.postData() ?? '') })
 
-  await form.getByLabel('Procedure').selectOption({ label: byDays })
-  await form.getByLabel('Machine').selectOption({ label: 'Bench Router' })
+  await form.getByRole('combobox', { name: /^Procedure/ }).selectOption({ label: byDays })
+  await form.getByRole('combobox', { name: /^Machine/ }).selectOption({ label: 'Bench Router' })
   await form.getByLabel('Every … days').fill('7')
   await form.getByRole('button', { name: 'Add interval' }).click()
   await expect(page.getByTestId('interval-row').filter({ hasText: byDays })).toBeVisible()
 
-  await form.getByLabel('Procedure').selectOption({ label: byHours })
-  await form.getByLabel('Machine').selectOption({ label: 'Bench Router' })
+  await form.getByRole('combobox', { name: /^Procedure/ }).selectOption({ label: byHours })
+  await form.getByRole('combobox', { name: /^Machine/ }).selectOption({ label: 'Bench Router' })
   await form.getByLabel('Every … spindle hours').fill('1')
   await form.getByRole('button', { name: 'Add interval' }).click()
   await expect(page.getByTestId('interval-row').filter({ hasText: byHours })).toBeVisible()
