@@ -3,7 +3,8 @@ import { safeCsvCell } from '../../server/utils/csv-cell'
 
 // OWASP "CSV Injection" (owasp.org/www-community/attacks/CSV_Injection): cells beginning with
 // = + - @, tab (0x09) or carriage return (0x0D) are read as formulas by spreadsheets; the advice
-// is to prepend a single quote. Its own examples are used below (=HYPERLINK, =cmd|, @SUM).
+// is to prepend a single quote. The payloads below follow the page's examples (=HYPERLINK, =cmd|,
+// @SUM), quoted from memory.
 
 describe('safeCsvCell', () => {
   it.each([
