@@ -109,19 +109,11 @@ type Cell = string | number | null | undefined
 const text = (v: unknown): string => (v === null || v === undefined ? '' : typeof v === 'object' ? JSON.stringify(v) : String(v))
 const num = (v: unknown): Cell => (typeof v === 'number' && Number.isFinite(v) ? v : text(v))
 
-/** "2026-01-12 09:02:00" in the given IANA time zone. */
-export function localTime(iso: string | null, timeZone: string): string {
-  if (!iso) return ''
-  const parts = Object.fromEntries(new Intl.DateTimeFormat('en-GB', {
-    timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23',
-  }).formatToParts(new Date(iso)).map(p => [p.type, p.value]))
-  return `${parts.year}-${parts.month}-${parts.day} ${parts.hour}:${parts.minute}:${parts.second}`
-}
-
 export function ledgerCsvColumns(timeZone: string) {
+  const localTime = localTimeFormatter(timeZone)
   const cols: { header: string, value: (r: LedgerRow) => Cell }[] = [
     { header: 'When (UTC)', value: r => r.at },
-    { header: `When (local, ${timeZone})`, value: r => localTime(r.at, timeZone) },
+    { header: `When (local, ${timeZone})`, value: r => localTime(r.at) },
     { header: 'Received (UTC)', value: r => r.receivedAt },
     { header: 'Kind', value: r => LEDGER_KIND_LABELS[r.kind] ?? r.kind },
     { header: 'Counted', value: r => (r.counted ? 'yes' : 'no') },
