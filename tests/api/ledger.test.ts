@@ -296,7 +296,8 @@ describe('append-only Ledger (issue 18) and every acknowledgement and sign-off (
       spindleKind: 'air-spindle', hasLengthSensor: false, spoilboardMaterial: 'MDF', spoilboardNominalMm: 18, spoilboardMinMm: 12,
     } })
     expect(machine.status, machine.text).toBe(201)
-    const made = await call('POST', '/api/procedures', { cookie: owner, body: { procedure: { ...PROCEDURE, title: `@SUM(1+1)*cmd ${Date.now()}` } } })
+    const made = await call('POST', '/api/procedures', { cookie: owner, body: { procedure: { ...PROCEDURE, title: `@SUM A1 cmd ${Date.now()}` } } })
+    // (no regular-expression characters in the title: other files build patterns from the newest procedure's)
     expect(made.status, made.text).toBe(201)
     const [[shop]] = await db().query<any[]>('select shop_id from users where id = ?', [ids.owner])
     const [person] = await db().query<any>('insert into users (shop_id, email, name, password_hash, role) values (?,?,?,?,?)', [shop.shop_id, `csv-${Date.now()}@demo.jogwise.test`, '-2+3+cmd', 'not-a-hash', 'operator'])
@@ -311,7 +312,7 @@ describe('append-only Ledger (issue 18) and every acknowledgement and sign-off (
       'Person': '\'-2+3+cmd', 'Machine': '\'=cmd|\' /C calc\'!A0', 'Step': '\'+Measure the runout',
       'Reason': '\'=HYPERLINK("http://example.invalid","look")', 'Reading': '-0.4', 'Unit': 'mm',
     })
-    expect(record!.Procedure).toMatch(/^'@SUM\(1\+1\)\*cmd \d+$/)
+    expect(record!.Procedure).toMatch(/^'@SUM A1 cmd \d+$/)
     // The reading is written bare, a number a spreadsheet sums; no cell of the file starts a formula.
     expect(text).toMatch(/,-0\.4,mm,/)
     for (const cell of Object.values(record!)) expect(cell).not.toMatch(/^[=+@\t\r]|^-(?!\d)/)
