@@ -60,7 +60,7 @@ for (let s = 0; s < SHOPS; s++) {
 }
 
 // 2. Runs of about 20 events each, spread over the last year. The mix per run: start, steps
-//    done and holds acknowledged, four readings (one in five out of range), a photo, a note,
+//    done and holds acknowledged (each an entry), four readings (one in five out of range), a photo, a note,
 //    an override in one run in six, a late event past a hold in one in twenty, a skipped check
 //    in one in ten, and a finish in nine runs of ten.
 const now = Date.now()
@@ -74,7 +74,7 @@ async function flush(force = false) {
   if (force || eventRows.length >= 20_000) {
     await insertMany('runs', ['id', 'shop_id', 'machine_id', 'procedure_version_id', 'started_by', 'mode', 'status', 'spindle_minutes', 'started_at', 'finished_at'], runRows)
     await insertMany('run_events', ['id', 'shop_id', 'run_id', 'type', 'actor_id', 'device_id', 'at', 'payload', 'flag'], eventRows)
-    await insertMany('ledger_entries', ['shop_id', 'event_id', 'run_id', 'kind', 'actor_id', 'machine_id', 'procedure_id', 'step_key', 'at', 'detail'], entryRows)
+    await insertMany('ledger_entries', ['shop_id', 'event_id', 'run_id', 'kind', 'actor_id', 'machine_id', 'procedure_id', 'step_key', 'at', 'detail', 'received_at', 'entry_key'], entryRows)
     runRows = []
     eventRows = []
     entryRows = []
@@ -96,16 +96,18 @@ while (events < TOTAL_EVENTS) {
     return { id, at: new Date(t), by }
   }
   const entry = (e: { id: string, at: Date, by: number }, kind: string, stepKey: string, detail: Record<string, unknown>) => {
-    entryRows.push([shop.id, e.id, runId, kind, e.by, machine, proc.id, stepKey, e.at, JSON.stringify(detail)])
+    entryRows.push([shop.id, e.id, runId, kind, e.by, machine, proc.id, stepKey, e.at, JSON.stringify(detail), e.at, `${e.id}:${kind}:1`])
     entries++
   }
   ev('run.started', { procedureVersionId: proc.versionId, machineId: machine, mode: 'solo' })
-  ev('hold.acknowledged', { stepKey: 'isolate' })
+  // Every acknowledgement is an entry too (issue 11).
+  const ack = (stepKey: string, stepTitle: string) => entry(ev('hold.acknowledged', { stepKey }), 'hold-acknowledged', stepKey, { stepTitle, signalWord: 'WARNING' })
+  ack('isolate', 'Isolate the power')
   if (rnd() < 1 / 6) {
     const o = ev('hold.overridden', { stepKey: 'guard', reason: 'Guard checked by hand, the sensor is faulty' }, null, pick(shop.users))
     entry(o, 'override', 'guard', { stepTitle: 'Fit the guard', reason: 'Guard checked by hand, the sensor is faulty', signalWord: 'WARNING' })
   }
-  else ev('hold.acknowledged', { stepKey: 'guard' })
+  else ack('guard', 'Fit the guard')
   if (rnd() < 1 / 20) {
     const late = ev('step.done', { stepKey: 'clear' }, 'passed-unacknowledged-hold')
     entry(late, 'late-past-hold', 'clear', { stepTitle: 'Clear the bed', eventType: 'step.done', code: 'passed-unacknowledged-hold', reason: 'Marking done came before the hold was acknowledged; it was not applied.' })

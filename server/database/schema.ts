@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm'
 import {
   boolean, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
 } from 'drizzle-orm/mysql-core'
+import { LEDGER_ENTRY_KINDS } from '../../shared/runs/ledger-kinds'
 
 // One schema for the whole product. Table and column names are snake_case plurals (STYLE §4);
 // every row that belongs to a shop carries shop_id so each query can be scoped to one shop.
@@ -298,25 +299,39 @@ export const mailOutbox = mysqlTable('mail_outbox', {
   index('mail_outbox_due_idx').on(t.status, t.nextAttemptAt),
 ])
 
-export const LEDGER_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check', 'signoff-failed'] as const
-
 // What the Ledger lists: one row per event that an owner must be able to find (an override,
-// a late event that passed an open hold, a reading out of range, a check skipped), written by
-// the sync merge from the fold, denormalised so the filters are plain indexed lookups.
+// an acknowledgement, a sign-off, a late event that passed an open hold, a reading out of
+// range, a check skipped…), written by the sync merge from the fold, denormalised so the
+// filters are plain indexed lookups. Append-only: a row is never deleted and its content never
+// rewritten; when a later event changes what it means, a new row says so and the old one gets
+// changed_at / changed_by (server/utils/ledger-write.ts).
 export const ledgerEntries = mysqlTable('ledger_entries', {
   id: int('id').autoincrement().primaryKey(),
   shopId: int('shop_id').notNull().references(() => shops.id),
   eventId: varchar('event_id', { length: 36 }).notNull(),
   runId: varchar('run_id', { length: 36 }).notNull(),
-  kind: mysqlEnum('kind', LEDGER_KINDS).notNull(),
+  kind: mysqlEnum('kind', LEDGER_ENTRY_KINDS).notNull(),
   actorId: int('actor_id').notNull().references(() => users.id),
   machineId: int('machine_id').notNull().references(() => machines.id),
   procedureId: int('procedure_id').notNull().references(() => procedures.id),
   stepKey: varchar('step_key', { length: 60 }),
+  // The time the event claimed (the tablet's clock); for entry-changed and backdated entries,
+  // the time the server received the event, so they come first in the Ledger when they happen.
   at: timestamp('at', { fsp: 3 }).notNull(),
+  // When the server received the event the entry is about.
+  receivedAt: timestamp('received_at', { fsp: 3 }),
+  recordedAt: timestamp('recorded_at', { fsp: 3 }).notNull().defaultNow(),
+  // Identity of the row, so two merges of one run at once never append the same thing twice:
+  // "<event id>:<kind>:<revision>", "changed:<entry id>" or "backdated:<event id>".
+  entryKey: varchar('entry_key', { length: 100 }),
+  revision: int('revision').notNull().default(1),
+  counted: boolean('counted').notNull().default(true),
+  changedAt: timestamp('changed_at', { fsp: 3 }),
+  changedBy: int('changed_by'),
   detail: json('detail').$type<Record<string, unknown>>().notNull(),
 }, t => [
-  uniqueIndex('ledger_entries_event_kind_unique').on(t.eventId, t.kind),
+  uniqueIndex('ledger_entries_entry_key_unique').on(t.entryKey),
+  index('ledger_entries_run_idx').on(t.runId),
   index('ledger_entries_shop_at_idx').on(t.shopId, t.at),
   index('ledger_entries_shop_kind_idx').on(t.shopId, t.kind, t.at),
   index('ledger_entries_shop_actor_idx').on(t.shopId, t.actorId, t.at),

@@ -38,6 +38,8 @@ export const DEMO_TOOLS = [
   { name: 'V-bit 60°', kind: 'v-bit', diameterMm: 12.7, flutes: 2, cornerRadiusMm: 0, maxRpm: 24000, notes: 'Also for setting X/Y work zero.' },
 ] as const
 
+export const DEMO_MACHINES_AGE_DAYS = 60
+
 // Maintenance intervals of the demo shop (machine: index into DEMO_MACHINES, null = every machine).
 export const DEMO_INTERVALS = [
   { slug: 'spoilboard-resurfacing', machine: 0, everyDays: 30, everySpindleHours: 80 },
@@ -64,8 +66,11 @@ export async function seedDemoShopIfEmpty(password: string) {
       if (p.role === 'owner') ownerId = id
     }
     const machineIds: number[] = []
+    // The demo routers have been in the shop a while, so intervals never done show as overdue
+    // (a machine's intervals count from when it was added: server/utils/due-list.ts).
+    const inShopSince = new Date(Date.now() - DEMO_MACHINES_AGE_DAYS * 86_400_000)
     for (const m of DEMO_MACHINES) {
-      const [{ id }] = await tx.insert(tables.machines).values({ ...m, shopId }).$returningId() as [{ id: number }]
+      const [{ id }] = await tx.insert(tables.machines).values({ ...m, shopId, createdAt: inShopSince }).$returningId() as [{ id: number }]
       machineIds.push(id)
     }
     for (const t of DEMO_TOOLS) await tx.insert(tables.tools).values({ ...t, shopId })

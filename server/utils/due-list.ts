@@ -1,8 +1,9 @@
 // The maintenance due list: for every interval (procedure × machine, or × every machine in
 // service when machine_id is null) when it was last done and whether it is due again.
 // An interval is satisfied by the last FINISHED run of that procedure on that machine; never
-// done counts as overdue. Spindle hours since = the spindle minutes of runs on that machine
-// started after that run finished (runs.spindle_minutes, kept by the sync merge) / 60.
+// done yet counts from when the machine was added (a machine added today is not overdue; one
+// added long ago and never serviced is). Spindle hours since = the spindle minutes of runs on
+// that machine started after that run finished (runs.spindle_minutes, kept by the sync merge) / 60.
 
 export type DueStatus = 'ok' | 'due' | 'overdue'
 
@@ -34,12 +35,15 @@ export interface IntervalFacts {
   everyDays: number | null
   everySpindleHours: number | null
   lastDoneAt: Date | null
+  /** When the machine was added: the start of the count while the procedure was never done on it. */
+  addedAt?: Date | null
   spindleHoursSince: number
 }
 
 /** The status of one interval from its facts; pure, so the rule is testable on its own. */
 export function dueStatusOf(f: IntervalFacts, now: Date): { status: DueStatus, reason: string, dueAt: Date | null } {
-  if (!f.lastDoneAt) {
+  const since = f.lastDoneAt ?? f.addedAt ?? null
+  if (!since) {
     const every = [f.everyDays ? `every ${f.everyDays} days` : '', f.everySpindleHours ? `every ${f.everySpindleHours} spindle hours` : ''].filter(Boolean).join(' or ')
     return { status: 'overdue', reason: `Never done; ${every}.`, dueAt: null }
   }
@@ -47,19 +51,19 @@ export function dueStatusOf(f: IntervalFacts, now: Date): { status: DueStatus, r
   const reasons: string[] = []
   let dueAt: Date | null = null
   if (f.everyDays) {
-    dueAt = new Date(f.lastDoneAt.getTime() + f.everyDays * DAY_MS)
+    dueAt = new Date(since.getTime() + f.everyDays * DAY_MS)
     const windowMs = Math.max(DUE_WINDOW_MIN_DAYS, f.everyDays * DUE_WINDOW_SHARE) * DAY_MS
     const left = dueAt.getTime() - now.getTime()
-    const days = Math.floor((now.getTime() - f.lastDoneAt.getTime()) / DAY_MS)
+    const days = Math.floor((now.getTime() - since.getTime()) / DAY_MS)
     const s: DueStatus = left < 0 ? 'overdue' : left <= windowMs ? 'due' : 'ok'
     if (STATUS_RANK[s] > STATUS_RANK[status]) status = s
-    reasons.push(`last done ${days} day${days === 1 ? '' : 's'} ago, every ${f.everyDays} days`)
+    reasons.push(`${f.lastDoneAt ? 'last done' : 'not done yet; machine added'} ${days} day${days === 1 ? '' : 's'} ago, every ${f.everyDays} days`)
   }
   if (f.everySpindleHours) {
     const h = f.spindleHoursSince
     const s: DueStatus = h > f.everySpindleHours ? 'overdue' : h >= f.everySpindleHours * (1 - DUE_WINDOW_SHARE) ? 'due' : 'ok'
     if (STATUS_RANK[s] > STATUS_RANK[status]) status = s
-    reasons.push(`${round1(h)} of ${f.everySpindleHours} spindle hours used`)
+    reasons.push(`${f.lastDoneAt || f.everyDays ? '' : 'not done yet; '}${round1(h)} of ${f.everySpindleHours} spindle hours used`)
   }
   const text = reasons.join('; ')
   return { status, reason: text.charAt(0).toUpperCase() + text.slice(1) + '.', dueAt }
@@ -85,7 +89,7 @@ export async function listDueItems(shopId: number, now = new Date()): Promise<Du
     .orderBy(asc(t.maintenanceIntervals.id))
   if (!intervals.length) return []
   // The shop's machines in service
-  const machines = await db.select({ id: t.machines.id, name: t.machines.name }).from(t.machines)
+  const machines = await db.select({ id: t.machines.id, name: t.machines.name, createdAt: t.machines.createdAt }).from(t.machines)
     .where(and(eq(t.machines.shopId, shopId), isNull(t.machines.retiredAt)))
     .orderBy(asc(t.machines.name))
   // Last finished run per machine and procedure (one grouped query for the whole shop)
@@ -110,7 +114,7 @@ export async function listDueItems(shopId: number, now = new Date()): Promise<Du
     for (const m of machines.filter(m => i.machineId === null || m.id === i.machineId)) {
       const lastDoneAt = lastDone.get(`${m.id}:${i.procedureId}`) ?? null
       const spindleHoursSince = i.everySpindleHours ? await spindleSince(m.id, lastDoneAt) : 0
-      const { status, reason, dueAt } = dueStatusOf({ everyDays: i.everyDays, everySpindleHours: i.everySpindleHours, lastDoneAt, spindleHoursSince }, now)
+      const { status, reason, dueAt } = dueStatusOf({ everyDays: i.everyDays, everySpindleHours: i.everySpindleHours, lastDoneAt, addedAt: m.createdAt, spindleHoursSince }, now)
       out.push({
         intervalId: i.id, procedureId: i.procedureId, procedureTitle: i.title ?? `Procedure ${i.procedureId}`,
         machineId: m.id, machineName: m.name, status, reason,

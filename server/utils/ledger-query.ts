@@ -1,6 +1,6 @@
 import type { SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/mysql-core'
-import { ledgerSummary, type LedgerFilter } from '#shared/schemas/ledger'
+import { LEDGER_KIND_LABELS, ledgerSummary, type LedgerFilter } from '#shared/schemas/ledger'
 
 // The Ledger's reads: one WHERE for the table, the count and the CSV export, so the three can
 // never disagree about what a filter means. Every filter is a column of ledger_entries with an
@@ -25,6 +25,7 @@ function selectRows(db: DB, where: SQL) {
   const l = tables.ledgerEntries
   return db.select({
     id: l.id, eventId: l.eventId, runId: l.runId, kind: l.kind, at: l.at, stepKey: l.stepKey, detail: l.detail,
+    receivedAt: l.receivedAt, recordedAt: l.recordedAt, revision: l.revision, counted: l.counted, changedAt: l.changedAt, changedBy: l.changedBy,
     actorId: l.actorId, actorName: tables.users.name, machineId: l.machineId, machineName: tables.machines.name,
     procedureId: l.procedureId, procedureTitle: currentVersion.title,
   }).from(l)
@@ -45,6 +46,8 @@ function shapeRow(r: Awaited<ReturnType<typeof selectRows>>[number]) {
     procedureId: r.procedureId, procedureTitle: r.procedureTitle ?? `Procedure ${r.procedureId}`,
     stepKey: r.stepKey, stepTitle: typeof detail.stepTitle === 'string' ? detail.stepTitle : r.stepKey,
     summary: ledgerSummary(r.kind, detail), detail,
+    receivedAt: r.receivedAt?.toISOString() ?? null, recordedAt: r.recordedAt.toISOString(), revision: r.revision,
+    counted: r.counted, changedAt: r.changedAt?.toISOString() ?? null, changedBy: r.changedBy,
   }
 }
 
@@ -99,20 +102,43 @@ export async function* ledgerAll(shopId: number, f: LedgerFilter, batch = 2000):
   }
 }
 
-/** The CSV's columns, in order: the table's columns plus ids and the detail as JSON. */
-export const LEDGER_CSV_COLUMNS = [
-  { key: 'at', header: 'When (UTC)' },
-  { key: 'kind', header: 'Kind' },
-  { key: 'actorName', header: 'Person' },
-  { key: 'machineName', header: 'Machine' },
-  { key: 'procedureTitle', header: 'Procedure' },
-  { key: 'stepTitle', header: 'Step' },
-  { key: 'summary', header: 'What happened' },
-  { key: 'runId', header: 'Run' },
-  { key: 'eventId', header: 'Event' },
-  { key: 'detail', header: 'Detail (JSON)' },
-] as const
+// The CSV is for people first (readable kind names, local time beside UTC, the details in
+// columns of their own) and keeps the whole detail as JSON in the last column for programs.
+// Every text cell goes through safeCsvCell (formula injection); numbers stay numbers.
+type Cell = string | number | null | undefined
+const text = (v: unknown): string => (v === null || v === undefined ? '' : typeof v === 'object' ? JSON.stringify(v) : String(v))
+const num = (v: unknown): Cell => (typeof v === 'number' && Number.isFinite(v) ? v : text(v))
 
-export function ledgerCsvRecord(r: LedgerRow): string[] {
-  return LEDGER_CSV_COLUMNS.map(c => (c.key === 'detail' ? JSON.stringify(r.detail) : String(r[c.key] ?? '')))
+export function ledgerCsvColumns(timeZone: string) {
+  const localTime = localTimeFormatter(timeZone)
+  const cols: { header: string, value: (r: LedgerRow) => Cell }[] = [
+    { header: 'When (UTC)', value: r => r.at },
+    { header: `When (local, ${timeZone})`, value: r => localTime(r.at) },
+    { header: 'Received (UTC)', value: r => r.receivedAt },
+    { header: 'Kind', value: r => LEDGER_KIND_LABELS[r.kind] ?? r.kind },
+    { header: 'Counted', value: r => (r.counted ? 'yes' : 'no') },
+    { header: 'Not counted because', value: r => text(r.detail.notCounted) },
+    { header: 'Changed later', value: r => (r.changedAt ? `yes, see entry ${r.changedBy ?? ''}`.trim() : 'no') },
+    { header: 'Person', value: r => r.actorName },
+    { header: 'Machine', value: r => r.machineName },
+    { header: 'Procedure', value: r => r.procedureTitle },
+    { header: 'Step', value: r => r.stepTitle },
+    { header: 'What happened', value: r => r.summary },
+    { header: 'Reason', value: r => text(r.detail.reason) },
+    { header: 'Reading', value: r => num(r.detail.value) },
+    { header: 'Unit', value: r => text(r.detail.unit) },
+    { header: 'Allowed range', value: r => text(r.detail.range) },
+    { header: 'Signal word', value: r => text(r.detail.signalWord) },
+    { header: 'Entry', value: r => r.id },
+    { header: 'Revision', value: r => r.revision },
+    { header: 'Run', value: r => r.runId },
+    { header: 'Event', value: r => r.eventId },
+    { header: 'Kind (code)', value: r => r.kind },
+    { header: 'Detail (JSON)', value: r => JSON.stringify(r.detail) },
+  ]
+  return cols
+}
+
+export function ledgerCsvRecord(r: LedgerRow, columns: ReturnType<typeof ledgerCsvColumns>): (string | number)[] {
+  return columns.map(c => safeCsvCell(c.value(r)))
 }

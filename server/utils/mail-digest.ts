@@ -45,6 +45,8 @@ export async function digestContent(shopId: number, now: Date) {
     .where(and(
       eq(tables.ledgerEntries.shopId, shopId),
       inArray(tables.ledgerEntries.kind, ['skipped-check', 'out-of-range']),
+      // Only entries still true: one the record later changed has a newer revision or none.
+      isNull(tables.ledgerEntries.changedAt),
       gte(tables.ledgerEntries.at, since), lte(tables.ledgerEntries.at, now),
     ))
     .orderBy(asc(tables.ledgerEntries.at))

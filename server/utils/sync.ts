@@ -297,7 +297,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         }
       }
       if (!done.length) return
-      await refoldRuns(db, user.shopId, [done[0]!.runId])
+      await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id))
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
     })
@@ -388,7 +388,8 @@ function refuseUnstorableNumbers(value: unknown, depth = 0): void {
 }
 
 /** Folds runs from their stored events and writes back the run summary and event flags. */
-export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
+// arrivedIds: the events this batch stored, so the Ledger can say which of them changed the record.
+export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = []) {
   if (!runIds.length) return
   const runs = await db.select({ id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId })
     .from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
@@ -427,5 +428,5 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[]) {
     }).where(eq(tables.runs.id, run.id))
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
-  await writeRunLedger(db, shopId, folded)
+  await writeRunLedger(db, shopId, folded, arrivedIds)
 }

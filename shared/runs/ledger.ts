@@ -1,12 +1,14 @@
 import { describeRange, type ProcedureStep } from '../procedures/schema'
+import type { RunEvent } from './events'
 import type { EventRef, RunState } from './fold'
+import type { LedgerEntryKind } from './ledger-kinds'
+
+export * from './ledger-kinds'
 
 // What a run contributes to the Ledger, read off the fold's state. Pure, so the sync merge can
-// make the ledger_entries table match the state after every batch (an undo removes an entry)
-// and the rules can be tested without a database.
-
-export const LEDGER_ENTRY_KINDS = ['override', 'late-past-hold', 'out-of-range', 'skipped-check', 'signoff-failed'] as const
-export type LedgerEntryKind = typeof LEDGER_ENTRY_KINDS[number]
+// compare it with the entries already written after every batch (server/utils/ledger-write.ts
+// appends what is new and marks what stopped being true; it never deletes) and the rules can be
+// tested without a database.
 
 export interface LedgerEntryDraft {
   /** The event the entry is about; with kind, the entry's identity. */
@@ -15,6 +17,8 @@ export interface LedgerEntryDraft {
   actorId: number
   stepKey: string | null
   at: string
+  /** False for an event the fold did not count (refused, or undone); detail.notCounted says why. */
+  counted: boolean
   detail: Record<string, unknown>
 }
 
@@ -32,25 +36,52 @@ const PAST_HOLD_CODES = new Set(['passed-unacknowledged-hold', 'passed-unsigned-
  *   measuring). The entry hangs on the earliest such later action; checks passed by the same
  *   action share one entry (detail.steps). Filling in the reading later removes it. Checks
  *   never reached (an abandoned run) are not skipped: nothing was done past them.
+ * - hold-acknowledged, signed-off: every acknowledgement and sign-off stored for the run;
+ * - an override, acknowledgement or sign-off the fold did not count (two tablets on one run,
+ *   a run already ended, an undone acknowledgement…) is still an entry, with counted false and
+ *   the reason in detail.notCounted: the owner sees everything that was sent, not only what won.
  */
 export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]): LedgerEntryDraft[] {
   const out: LedgerEntryDraft[] = []
   const stepByKey = new Map(steps.map(s => [s.key, s]))
   const titleOf = (key: string | null) => (key ? stepByKey.get(key)?.title ?? key : null)
 
-  for (const o of state.overrides) {
-    const step = stepByKey.get(o.stepKey)
-    out.push({
-      eventId: o.eventId, kind: 'override', actorId: o.actorId, stepKey: o.stepKey, at: o.at,
-      detail: { stepTitle: titleOf(o.stepKey), reason: o.reason, signalWord: step?.kind === 'hold' ? step.signalWord : null },
-    })
+  const signalWordOf = (key: string | null) => {
+    const step = key ? stepByKey.get(key) : undefined
+    return step?.kind === 'hold' ? step.signalWord : null
   }
+  const undone = new Set(state.undoneIds)
+  // Overrides, acknowledgements and sign-offs: the counted ones, then the refused ones.
+  const routine = (e: RunEvent, notCounted: { code: string, message: string } | null) => {
+    const p = e as RunEvent & Record<string, any>
+    const stepKey = typeof p.stepKey === 'string' ? p.stepKey : null
+    const base = { eventId: e.id, actorId: e.actorId, stepKey, at: e.at, counted: notCounted === null }
+    const why = notCounted ? { notCounted: notCounted.message, notCountedCode: notCounted.code } : {}
+    if (e.type === 'hold.overridden') {
+      out.push({ ...base, kind: 'override', detail: { stepTitle: titleOf(stepKey), reason: String(p.reason ?? '').trim(), signalWord: signalWordOf(stepKey), ...why } })
+    }
+    else if (e.type === 'hold.acknowledged') {
+      out.push({ ...base, kind: 'hold-acknowledged', detail: { stepTitle: titleOf(stepKey), signalWord: signalWordOf(stepKey), ...why } })
+    }
+    else if (e.type === 'signoff.given') {
+      // The signer is the person who signed; the person whose tablet sent it is kept beside.
+      out.push({
+        ...base, kind: 'signed-off', actorId: typeof p.signerId === 'number' ? p.signerId : e.actorId,
+        detail: { stepTitle: stepKey ? titleOf(stepKey) : 'The whole run', signerId: p.signerId ?? null, signerRole: p.signerRole ?? null, sentBy: e.actorId, ...why },
+      })
+    }
+  }
+  for (const e of state.applied) {
+    routine(e, undone.has(e.id) ? { code: 'undone', message: 'Undone by the person who made it.' } : null)
+  }
+  // A clashing copy of another event's id is not an event of its own.
+  for (const f of state.flagged) if (f.code !== 'duplicate') routine(f.event, { code: f.code, message: f.message })
 
   for (const f of state.flagged) {
     if (!PAST_HOLD_CODES.has(f.code)) continue
     const stepKey = 'stepKey' in f.event && typeof f.event.stepKey === 'string' ? f.event.stepKey : null
     out.push({
-      eventId: f.event.id, kind: 'late-past-hold', actorId: f.event.actorId, stepKey, at: f.event.at,
+      eventId: f.event.id, kind: 'late-past-hold', actorId: f.event.actorId, stepKey, at: f.event.at, counted: true,
       detail: { stepTitle: titleOf(stepKey), eventType: f.event.type, code: f.code, reason: f.message },
     })
   }
@@ -60,7 +91,7 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
     if (f.code !== 'signoff-failed' || f.event.type !== 'signoff.given') continue
     const stepKey = f.event.stepKey ?? null
     out.push({
-      eventId: f.event.id, kind: 'signoff-failed', actorId: f.event.actorId, stepKey, at: f.event.at,
+      eventId: f.event.id, kind: 'signoff-failed', actorId: f.event.actorId, stepKey, at: f.event.at, counted: true,
       detail: { stepTitle: titleOf(stepKey), signerId: f.event.signerId, signerRole: f.event.signerRole, reason: f.message },
     })
   }
@@ -69,7 +100,7 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
     if (v.outOfRange === null) continue
     const step = stepByKey.get(v.stepKey)
     out.push({
-      eventId: v.eventId, kind: 'out-of-range', actorId: v.actorId, stepKey: v.stepKey, at: v.at,
+      eventId: v.eventId, kind: 'out-of-range', actorId: v.actorId, stepKey: v.stepKey, at: v.at, counted: true,
       detail: {
         stepTitle: titleOf(v.stepKey), value: v.value, unit: v.unit, side: v.outOfRange,
         range: step?.kind === 'check' ? describeRange(step) : null, reason: v.reason,
@@ -95,7 +126,7 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
   })
   for (const [eventId, e] of skippedBy) {
     out.push({
-      eventId, kind: 'skipped-check', actorId: e.ref.actorId, stepKey: e.steps[0]!.stepKey, at: e.ref.at,
+      eventId, kind: 'skipped-check', actorId: e.ref.actorId, stepKey: e.steps[0]!.stepKey, at: e.ref.at, counted: true,
       detail: {
         stepTitle: e.steps[0]!.stepTitle, steps: e.steps, passedBy: { stepKey: e.stepKey, stepTitle: titleOf(e.stepKey), action: e.action },
         reason: `No reading recorded for ${e.steps.map(s => `"${s.stepTitle}"`).join(', ')} before work on "${titleOf(e.stepKey)}".`,

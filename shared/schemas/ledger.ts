@@ -1,16 +1,10 @@
 import { z } from 'zod'
 import { MAX_ID } from './input'
-import { LEDGER_ENTRY_KINDS, type LedgerEntryKind } from '../runs/ledger'
+import { LEDGER_ENTRY_KINDS, type LedgerEntryKind } from '../runs/ledger-kinds'
 
 // Filters of the Ledger (table, CSV export and run list), one copy for the screen and the API.
 
-export const LEDGER_KIND_LABELS: Record<LedgerEntryKind, string> = {
-  'override': 'Hold overridden',
-  'late-past-hold': 'Went past a hold',
-  'out-of-range': 'Reading out of range',
-  'skipped-check': 'Check skipped',
-  'signoff-failed': 'Sign-off failed its check',
-}
+export { LEDGER_KIND_LABELS } from '../runs/ledger-kinds'
 
 export const LEDGER_MAX_PAGE_SIZE = 100
 
@@ -55,6 +49,21 @@ export const LedgerFilterSchema = z.object({
 }).strict().refine(fromBeforeTo, fromBeforeToIssue)
 export type LedgerFilter = z.output<typeof LedgerFilterSchema>
 
+// The browser's IANA time zone, for the CSV's local-time column; checked by Intl itself.
+const timeZone = z.string({ error: 'tz must be a time zone name.' }).trim().max(64, 'tz must be at most 64 characters.')
+  .refine((v) => {
+    try { new Intl.DateTimeFormat('en', { timeZone: v }); return true }
+    catch { return false }
+  }, 'tz must be a time zone name such as Europe/Madrid or UTC.')
+  .optional()
+
+export const LedgerExportSchema = z.object({
+  kind: z.enum(LEDGER_ENTRY_KINDS, { error: `kind must be one of ${LEDGER_ENTRY_KINDS.join(', ')}.` }).optional(),
+  ...filterShape,
+  tz: timeZone,
+}).strict().refine(fromBeforeTo, fromBeforeToIssue)
+export type LedgerExport = z.output<typeof LedgerExportSchema>
+
 export const LedgerQuerySchema = z.object({
   kind: z.enum(LEDGER_ENTRY_KINDS, { error: `kind must be one of ${LEDGER_ENTRY_KINDS.join(', ')}.` }).optional(),
   ...filterShape,
@@ -63,6 +72,8 @@ export const LedgerQuerySchema = z.object({
 export type LedgerQuery = z.output<typeof LedgerQuerySchema>
 
 export const LedgerRunsQuerySchema = z.object({
+  // A run "of a kind" has at least one Ledger entry of that kind, so the run list can follow the table.
+  kind: z.enum(LEDGER_ENTRY_KINDS, { error: `kind must be one of ${LEDGER_ENTRY_KINDS.join(', ')}.` }).optional(),
   status: z.enum(['active', 'finished', 'abandoned'], { error: 'status must be active, finished or abandoned.' }).optional(),
   ...filterShape,
   ...page,
@@ -72,11 +83,17 @@ export type LedgerRunsQuery = z.output<typeof LedgerRunsQuerySchema>
 /** One line saying what an entry is about, the same on the screen and in the CSV. */
 export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unknown>): string {
   const d = detail as Record<string, any>
+  const notCounted = typeof d.notCounted === 'string' ? ` Not counted: ${d.notCounted}` : ''
   switch (kind) {
-    case 'override': return `Override reason: ${d.reason ?? ''}`
+    case 'override': return `Override reason: ${d.reason ?? ''}${notCounted}`
     case 'late-past-hold': return String(d.reason ?? '')
     case 'out-of-range': return `${d.value} ${d.unit} is ${d.side} the range${d.range ? ` (${d.range})` : ''}; reason: ${d.reason ?? 'none given'}`
     case 'skipped-check': return String(d.reason ?? '')
     case 'signoff-failed': return String(d.reason ?? '')
+    case 'hold-acknowledged': return `Acknowledged the ${d.signalWord ? `${d.signalWord} ` : ''}hold.${notCounted}`
+    case 'signed-off': return `Signed off ${d.stepTitle ? `"${d.stepTitle}"` : 'the run'}${d.signerRole ? ` as ${d.signerRole}` : ''}.${notCounted}`
+    case 'entry-changed': return String(d.reason ?? '')
+    case 'backdated': return String(d.reason ?? '')
+    default: return String(d.reason ?? '')
   }
 }

@@ -5,7 +5,8 @@ import { as, call, db, otherShop } from './client'
 // Maintenance intervals and the due list against the real server and MariaDB. The due rule is
 // Jogwise's own (issue 6 and server/utils/due-list.ts): an interval is met by the last
 // FINISHED run of its procedure on the machine; it is "due" within 10 % of the interval (at
-// least one day) before the limit, "overdue" past it, and "overdue" when never done. Spindle
+// least one day) before the limit, "overdue" past it; never done counts from when the machine
+// was added (issue 11: a machine added today is not overdue). Spindle
 // hours count runs.spindle_minutes of runs on the machine started after that run finished.
 // Run dates are written straight into the database, so every status is set up exactly.
 
@@ -116,7 +117,7 @@ describe('GET /api/due', () => {
     await insertRun(p1!, { startedDaysAgo: 9.6, finishedDaysAgo: 9.5 })                 // 0.5 day left: due
     await insertRun(p2!, { startedDaysAgo: 12.1, finishedDaysAgo: 12 })                 // 2 days late: overdue
     await insertRun(p2!, { startedDaysAgo: 1, status: 'abandoned', finishedDaysAgo: 1 }) // abandoned: does not count
-    await insertRun(p3!, { startedDaysAgo: 1 })                                          // only unfinished: never done
+    await insertRun(p3!, { startedDaysAgo: 1 })                                          // only unfinished: not done yet, machine added today
     // Every 10 spindle hours: done 20 days ago; since then 300 + 240 = 540 min = 9 h on this
     // machine (90 %: due), plus 600 min before it was done, which does not count.
     await insertRun(p0!, { startedDaysAgo: 30, finishedDaysAgo: 29.9, spindleMinutes: 600 })
@@ -131,7 +132,7 @@ describe('GET /api/due', () => {
     expect(byProc.get(p0!.id)).toMatchObject({ status: 'ok', everyDays: 10 })
     expect(byProc.get(p1!.id)).toMatchObject({ status: 'due' })
     expect(byProc.get(p2!.id)).toMatchObject({ status: 'overdue' })
-    expect(byProc.get(p3!.id)).toMatchObject({ status: 'overdue', lastDoneAt: null, reason: expect.stringMatching(/^Never done/) })
+    expect(byProc.get(p3!.id)).toMatchObject({ status: 'ok', lastDoneAt: null, reason: expect.stringMatching(/^Not done yet; machine added 0 days ago, every 10 days/) })
     expect(byProc.get(p4!.id)).toMatchObject({ status: 'due', spindleHoursSince: 9, everySpindleHours: 10 })
     // dueAt = last finished + 10 days
     const p0Item = byProc.get(p0!.id)
@@ -143,6 +144,33 @@ describe('GET /api/due', () => {
     // Another 90 minutes of spindle time: 10.5 h > 10 h, overdue.
     await insertRun(p5!, { startedDaysAgo: 1, finishedDaysAgo: 0.9, spindleMinutes: 90 })
     expect((await dueFor()).find(d => d.procedureId === p4!.id)).toMatchObject({ status: 'overdue', spindleHoursSince: 10.5 })
+  })
+
+  it('never done counts from when the machine was added: a new machine is not overdue, an old one is', async () => {
+    const owner = await as('owner')
+    const machine = (name: string) => call('POST', '/api/machines', { cookie: owner, body: {
+      name: `${name} ${Date.now()}`, travelXMm: 600, travelYMm: 400, travelZMm: 80, units: 'mm',
+      spindleKind: 'air-spindle', hasLengthSensor: false, spoilboardMaterial: 'MDF', spoilboardNominalMm: 18, spoilboardMinMm: 12,
+    } })
+    const fresh = (await machine('Due New Router')).body.id
+    const old = (await machine('Due Old Router')).body.id
+    await db().query('update machines set created_at = ? where id = ?', [new Date(Date.now() - 40 * DAY), old])
+    const made = await Promise.all([fresh, old].flatMap(m => [
+      post({ procedureId: procs[4]!.id, machineId: m, everyDays: 30 }),
+      post({ procedureId: procs[5]!.id, machineId: m, everySpindleHours: 5 }),
+    ]))
+    for (const m of made) expect(m.status, m.text).toBe(201)
+    const due = (await call('GET', '/api/due', { cookie: await as('operator') })).body as any[]
+    const mine = new Set(made.map(m => m.body.id))
+    const of = (m: number) => due.filter(d => d.machineId === m && mine.has(d.intervalId)).sort((a, b) => a.procedureId - b.procedureId)
+    // Added today: 30 days and 5 spindle hours from now; nothing is due.
+    expect(of(fresh).map(d => [d.status, d.lastDoneAt])).toEqual([['ok', null], ['ok', null]])
+    expect(of(fresh)[0].reason).toMatch(/^Not done yet; machine added 0 days ago, every 30 days\.$/)
+    expect(of(fresh)[1].reason).toMatch(/^Not done yet; 0 of 5 spindle hours used\.$/)
+    // Added 40 days ago and never done every 30 days: overdue; no spindle time run: ok.
+    expect(of(old).map(d => d.status)).toEqual(['overdue', 'ok'])
+    expect(of(old)[0].reason).toMatch(/^Not done yet; machine added 40 days ago/)
+    for (const m of made) await call('DELETE', `/api/maintenance-intervals/${m.body.id}`, { cookie: owner })
   })
 
   it('an interval for every machine appears once per machine in service', async () => {

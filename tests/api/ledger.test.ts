@@ -1,7 +1,9 @@
 import { parse } from 'csv-parse/sync'
 import { v7 as uuidv7 } from 'uuid'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { LEDGER_KIND_LABELS } from '../../shared/runs/ledger-kinds'
 import { as, call, db, otherShop } from './client'
+import { seal } from './seal'
 
 // The Ledger against the real server and MariaDB: entries written by the sync merge for an
 // override, a reading out of range, an event past an open hold and a skipped check (and taken
@@ -30,7 +32,7 @@ let machineId: number
 let other: Awaited<ReturnType<typeof otherShop>>
 
 // Events on 12 January 2026, one minute apart per run (a fixed day, so date filters are exact).
-const at = (day: number, minute: number) => new Date(Date.UTC(2026, 0, day, 8, minute)).toISOString()
+const at = (day: number, minute: number) => new Date(Date.UTC(2026, 0, day, 8, 0) + minute * 60_000).toISOString()
 function ev(runId: string, actor: string, type: string, day: number, minute: number, extra: Record<string, unknown> = {}) {
   return { id: uuidv7(), runId, type, at: at(day, minute), actorId: ids[actor], deviceId: 'ledger-tablet', ...extra }
 }
@@ -45,7 +47,20 @@ const sync = async (role: 'owner' | 'trainer' | 'operator', events: unknown[]) =
 const start = (runId: string, actor: string, day: number) => ev(runId, actor, 'run.started', day, 0, { procedureVersionId: versionId, machineId, mode: actor === 'operator' ? 'guided' : 'solo' })
 const ledger = async (query: Record<string, string | number>, role: 'owner' | 'trainer' = 'owner') =>
   call('GET', `/api/ledger?${new URLSearchParams(Object.entries(query).map(([k, v]) => [k, String(v)]))}`, { cookie: await as(role) })
-const entriesOf = async (runId: string) => (await db().query<any[]>('select kind, step_key, event_id, actor_id from ledger_entries where run_id = ? order by at, kind', [runId]))[0]
+// The exception entries still true (not changed later); the routine kinds are checked on their own.
+async function csvRecords(query: Record<string, string | number>) {
+  const res = await fetch(`${process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3100'}/api/ledger/export.csv?${new URLSearchParams(Object.entries(query).map(([k, v]) => [k, String(v)]))}`, { headers: { cookie: await as('owner') } })
+  expect(res.status).toBe(200)
+  expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
+  expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename="jogwise-ledger-\d{4}-\d{2}-\d{2}\.csv"$/)
+  // csv-parse (node-csv), the reader beside the csv-stringify the server writes with
+  return parse(await res.text(), { columns: true, skip_empty_lines: true }) as Record<string, string>[]
+}
+const entriesOf = async (runId: string) => (await db().query<any[]>(`select kind, step_key, event_id, actor_id from ledger_entries
+  where run_id = ? and changed_at is null and kind not in ('hold-acknowledged', 'signed-off', 'entry-changed', 'backdated') order by at, kind`, [runId]))[0]
+// Every row of a run, changed ones included, oldest first.
+const allEntriesOf = async (runId: string) => (await db().query<any[]>(`select id, kind, step_key, event_id, actor_id, counted, revision, changed_at, changed_by, received_at, at, detail
+  from ledger_entries where run_id = ? order by id`, [runId]))[0].map((r: any) => ({ ...r, counted: !!r.counted, detail: typeof r.detail === 'string' ? JSON.parse(r.detail) : r.detail }))
 
 beforeAll(async () => {
   for (const role of ['owner', 'trainer', 'operator', 'trainee'] as const) ids[role] = (await call('GET', '/api/me', { cookie: await as(role) })).body.user.id
@@ -94,8 +109,18 @@ describe('entries written by the sync merge', () => {
     const detail = typeof row.detail === 'string' ? JSON.parse(row.detail) : row.detail
     // The step allows 0 to 0.05 mm (PROCEDURE above); 0.12 is above it.
     expect(detail).toMatchObject({ value: 0.12, unit: 'mm', side: 'above', range: '0 to 0.05 mm', reason: 'Collet nut worn, new one ordered' })
-    await sync('operator', [ev(runId, 'operator', 'event.undone', 12, 5, { targetId: reading.id })])
+    const [[before]] = await db().query<any[]>('select count(*) as n from ledger_entries where run_id = ?', [runId])
+    const undo = ev(runId, 'operator', 'event.undone', 12, 5, { targetId: reading.id })
+    await sync('operator', [undo])
     expect(await entriesOf(runId)).toEqual([])
+    // Append-only: the entry is still there, marked changed by an entry naming the undo.
+    const all = await allEntriesOf(runId)
+    expect(all.length).toBe(Number(before.n) + 1)
+    const old = all.find(e => e.kind === 'out-of-range')
+    const change = all.find(e => e.kind === 'entry-changed')
+    expect(old).toMatchObject({ event_id: reading.id, changed_by: change.id })
+    expect(old.changed_at).toBeInstanceOf(Date)
+    expect(change).toMatchObject({ event_id: undo.id, actor_id: ids.operator, detail: { changedEntryId: old.id, changedKind: 'out-of-range', now: null, cause: { eventType: 'event.undone', claimedAt: undo.at } } })
   })
 
   it('an event that went past an open hold is a late-past-hold entry', async () => {
@@ -118,6 +143,185 @@ describe('entries written by the sync merge', () => {
     expect(await entriesOf(runId)).toEqual([{ kind: 'skipped-check', step_key: 'measure', event_id: tidy.id, actor_id: ids.operator }])
     await sync('operator', [ev(runId, 'operator', 'value.recorded', 12, 5, { stepKey: 'measure', value: 0.02, unit: 'mm' })])
     expect(await entriesOf(runId)).toEqual([])
+    expect((await allEntriesOf(runId)).filter(e => e.kind === 'skipped-check').map(e => e.changed_at === null)).toEqual([false])
+  })
+})
+
+describe('append-only Ledger (issue 18) and every acknowledgement and sign-off (issue 11)', () => {
+  let auditMachine: number
+  const startOn = (runId: string, actor: string, day: number) =>
+    ev(runId, actor, 'run.started', day, 0, { procedureVersionId: versionId, machineId: auditMachine, mode: actor === 'operator' ? 'guided' : 'solo' })
+  const send = async (role: 'owner' | 'trainer' | 'operator' | 'trainee', events: unknown[], deviceId = 'ledger-tablet') => {
+    const res = await call('POST', '/api/sync', { cookie: await as(role), body: { deviceId, events } })
+    expect(res.status, res.text).toBe(200)
+    return res
+  }
+  const on = (e: Record<string, unknown>, deviceId: string) => ({ ...e, deviceId })
+  const ledgerRows = async (query: Record<string, string | number>) => (await ledger({ machineId: auditMachine, pageSize: 100, ...query })).body.rows as any[]
+
+  beforeAll(async () => {
+    // A machine of its own, so these runs do not change the counts the other checks expect.
+    const machine = await call('POST', '/api/machines', { cookie: await as('owner'), body: {
+      name: `Ledger Audit Router ${Date.now()}`, travelXMm: 600, travelYMm: 400, travelZMm: 80, units: 'mm',
+      spindleKind: 'air-spindle', hasLengthSensor: false, spoilboardMaterial: 'MDF', spoilboardNominalMm: 18, spoilboardMinMm: 12,
+    } })
+    expect(machine.status, machine.text).toBe(201)
+    auditMachine = machine.body.id
+  })
+
+  it('a stranger\'s backdated run.abandoned before an override: the override entry stays in the Ledger and the CSV', async () => {
+    const runId = uuidv7()
+    const override = on(ev(runId, 'trainer', 'hold.overridden', 16, 2, { stepKey: 'isolate', reason: 'Isolator locked by me for the belt job' }), 'trainer-tablet')
+    await send('trainer', [on(startOn(runId, 'trainer', 16), 'trainer-tablet'), on(ev(runId, 'trainer', 'step.done', 16, 1, { stepKey: 'prep' }), 'trainer-tablet'), override], 'trainer-tablet')
+    const [first] = await allEntriesOf(runId)
+    expect(first).toMatchObject({ kind: 'override', event_id: override.id, counted: true, revision: 1, changed_at: null })
+    // The trainee has nothing to do with this run; the event claims one second before the override.
+    const abandon = on(ev(runId, 'trainee', 'run.abandoned', 16, 2 - 1 / 60, { reason: 'Machine needed for an urgent job' }), 'trainee-tablet')
+    const res = await send('trainee', [abandon], 'trainee-tablet')
+    const all = await allEntriesOf(runId)
+    // Whatever became of the event (refused as not on the run, or stored), the override stays.
+    expect(all.find(e => e.id === first.id)).toMatchObject({ kind: 'override', event_id: override.id, counted: true, revision: 1 })
+    const listed = (await ledgerRows({ kind: 'override' })).filter(r => r.eventId === override.id)
+    expect(listed.map(r => r.id)).toContain(first.id)
+    const csv = await csvRecords({ machineId: auditMachine, kind: 'override' })
+    expect(csv.filter(r => r.Event === override.id).map(r => r.Entry)).toContain(String(first.id))
+    if (res.body.rejected.length) {
+      expect(res.body.rejected[0].id).toBe(abandon.id)
+      expect(all.filter(e => e.changed_at !== null)).toEqual([])
+      return
+    }
+    // Stored: the override is no longer counted (the run "ended" first), a new revision says so,
+    // and an entry-changed row names the trainee's event, its claimed and its received time.
+    const change = all.find(e => e.kind === 'entry-changed')
+    expect(all.find(e => e.id === first.id)).toMatchObject({ changed_by: change.id })
+    expect(all.find(e => e.kind === 'override' && e.revision === 2)).toMatchObject({ event_id: override.id, counted: false, detail: { notCountedCode: 'after-finish' } })
+    expect(change).toMatchObject({ event_id: abandon.id, actor_id: ids.trainee, detail: { changedEntryId: first.id, cause: { eventType: 'run.abandoned', claimedAt: abandon.at, deviceId: 'trainee-tablet' } } })
+    expect(Date.parse(change.detail.cause.receivedAt)).toBeGreaterThan(Date.parse(abandon.at))
+    // One second is within the clock-skew tolerance: no backdated flag for this one.
+    expect(all.filter(e => e.kind === 'backdated')).toEqual([])
+  })
+
+  it('a lead\'s run.abandoned dated ten minutes before an override another tablet delivered is flagged; the override stays', async () => {
+    const runId = uuidv7()
+    const override = on(ev(runId, 'trainer', 'hold.overridden', 16, 12, { stepKey: 'isolate', reason: 'Isolator locked by me for the belt job' }), 'trainer-tablet')
+    await send('trainer', [on(startOn(runId, 'trainer', 16), 'trainer-tablet'), on(ev(runId, 'trainer', 'step.done', 16, 11, { stepKey: 'prep' }), 'trainer-tablet'), override], 'trainer-tablet')
+    const abandon = on(ev(runId, 'owner', 'run.abandoned', 16, 2, { reason: 'Stopped from the office, wrong job loaded' }), 'office-tablet')
+    expect((await send('owner', [abandon], 'office-tablet')).body.rejected).toEqual([])
+    const all = await allEntriesOf(runId)
+    const overrides = all.filter(e => e.kind === 'override')
+    expect(overrides.map(e => [e.revision, e.counted, e.changed_at === null])).toEqual([[1, true, false], [2, false, true]])
+    const flagged = all.find(e => e.kind === 'backdated')
+    // 08:12 (the override, delivered first from another tablet) − 08:02 (claimed) = 600 s
+    expect(flagged).toMatchObject({ event_id: abandon.id, actor_id: ids.owner, detail: { eventType: 'run.abandoned', claimedAt: abandon.at, secondsBefore: 600, newestDelivered: { eventId: override.id, deviceId: 'trainer-tablet' } } })
+    // The owner finds it by its kind; the record shows the received time beside the claimed one.
+    expect((await ledgerRows({ kind: 'backdated' })).map(r => r.eventId)).toContain(abandon.id)
+    const audit = await call('GET', `/api/runs/${runId}/audit`, { cookie: await as('owner') })
+    expect(audit.status, audit.text).toBe(200)
+    expect(Date.parse(audit.body.received[abandon.id])).toBeGreaterThan(Date.parse(abandon.at))
+    expect(audit.body.entries.map((e: any) => e.kind)).toEqual(expect.arrayContaining(['override', 'entry-changed', 'backdated']))
+    // Another shop member sees the received times but not the Ledger entries.
+    expect((await call('GET', `/api/runs/${runId}/audit`, { cookie: await as('operator') })).body).toMatchObject({ entries: null, received: { [abandon.id]: expect.any(String) } })
+  })
+
+  it('a backdated hold.acknowledged after going past the hold: the "went past a hold" entry stays, marked changed', async () => {
+    const runId = uuidv7()
+    const past = on(ev(runId, 'operator', 'step.done', 17, 3, { stepKey: 'work' }), 'op-tablet-a')
+    await send('operator', [on(startOn(runId, 'operator', 17), 'op-tablet-a'), on(ev(runId, 'operator', 'step.done', 17, 1, { stepKey: 'prep' }), 'op-tablet-a'), past], 'op-tablet-a')
+    expect(await entriesOf(runId)).toEqual([{ kind: 'late-past-hold', step_key: 'work', event_id: past.id, actor_id: ids.operator }])
+    const [pastEntry] = (await allEntriesOf(runId)).filter(e => e.kind === 'late-past-hold')
+    // Sent later, from another tablet, dated 90 s before the step it would excuse.
+    const ack = on(ev(runId, 'operator', 'hold.acknowledged', 17, 1.5, { stepKey: 'isolate' }), 'op-tablet-b')
+    expect((await send('operator', [ack], 'op-tablet-b')).body.rejected).toEqual([])
+    const all = await allEntriesOf(runId)
+    const change = all.find(e => e.kind === 'entry-changed')
+    expect(all.find(e => e.id === pastEntry.id)).toMatchObject({ kind: 'late-past-hold', event_id: past.id, changed_by: change.id })
+    expect(change).toMatchObject({ event_id: ack.id, actor_id: ids.operator, detail: { changedKind: 'late-past-hold', now: null, cause: { eventType: 'hold.acknowledged', claimedAt: ack.at } } })
+    expect(all.find(e => e.kind === 'hold-acknowledged')).toMatchObject({ event_id: ack.id, counted: true })
+    expect(all.find(e => e.kind === 'backdated')).toMatchObject({ event_id: ack.id, detail: { secondsBefore: 90 } })
+    // Still listed and exported under its kind
+    expect((await ledgerRows({ kind: 'late-past-hold' })).find(r => r.id === pastEntry.id)).toMatchObject({ changedBy: change.id, changedAt: expect.any(String) })
+    const csv = (await csvRecords({ machineId: auditMachine, kind: 'late-past-hold' })).find(r => r.Entry === String(pastEntry.id))
+    expect(csv).toMatchObject({ 'Kind': 'Went past a hold', 'Changed later': `yes, see entry ${change.id}` })
+  })
+
+  it('an override the fold did not count (two tablets on one hold) is listed, not counted, with the reason', async () => {
+    const runId = uuidv7()
+    await send('trainer', [on(startOn(runId, 'trainer', 18), 'tablet-a'), on(ev(runId, 'trainer', 'step.done', 18, 1, { stepKey: 'prep' }), 'tablet-a'),
+      on(ev(runId, 'trainer', 'hold.overridden', 18, 2, { stepKey: 'isolate', reason: 'Isolator locked by me for the belt job' }), 'tablet-a')], 'tablet-a')
+    const second = on(ev(runId, 'owner', 'hold.overridden', 18, 3, { stepKey: 'isolate', reason: 'Checked the isolator from the office camera' }), 'tablet-b')
+    expect((await send('owner', [second], 'tablet-b')).body.rejected).toEqual([])
+    const rows = (await ledgerRows({ kind: 'override' })).filter(r => r.runId === runId)
+    expect(rows.map(r => [r.actorId, r.counted])).toEqual([[ids.owner, false], [ids.trainer, true]])
+    expect(rows[0].detail.notCounted).toMatch(/already cleared/)
+    expect(rows[0].summary).toMatch(/^Override reason: Checked the isolator from the office camera Not counted: /)
+    const csv = (await csvRecords({ machineId: auditMachine, kind: 'override' })).find(r => r.Event === second.id)
+    expect(csv).toMatchObject({ 'Kind': 'Hold overridden', 'Counted': 'no', 'Reason': 'Checked the isolator from the office camera', 'Signal word': 'WARNING' })
+    expect(csv!['Not counted because']).toMatch(/already cleared/)
+  })
+
+  it('every acknowledgement and sign-off is an entry, filterable by kind, in the CSV and in the run list', async () => {
+    const runId = uuidv7()
+    const ack = ev(runId, 'operator', 'hold.acknowledged', 19, 2, { stepKey: 'isolate' })
+    await sync('operator', [startOn(runId, 'operator', 19), ev(runId, 'operator', 'step.done', 19, 1, { stepKey: 'prep' }), ack,
+      ev(runId, 'operator', 'step.done', 19, 3, { stepKey: 'work' }), ev(runId, 'operator', 'value.recorded', 19, 4, { stepKey: 'measure', value: 0.02, unit: 'mm' }),
+      ev(runId, 'operator', 'step.done', 19, 5, { stepKey: 'measure' }), ev(runId, 'operator', 'step.done', 19, 6, { stepKey: 'tidy' })])
+    // The trainer's PIN on the operator's tablet (demo trainer PIN, server/utils/demo-shop.ts),
+    // sealed to the server's key and bound to this very event (tests/api/seal.ts)
+    // A seal lives 72 hours, so this sign-off is dated now, after the run's January events.
+    const signoff = { ...ev(runId, 'operator', 'signoff.given', 19, 7, { stepKey: 'sign', signerId: ids.trainer, signerRole: 'trainer' }), at: new Date().toISOString() }
+    Object.assign(signoff, { seal: await seal(await as('operator'), { runId, stepKey: 'sign', signerId: ids.trainer!, eventId: signoff.id, time: signoff.at, pin: '2468' }) })
+    await sync('operator', [signoff])
+    const acks = (await ledgerRows({ kind: 'hold-acknowledged' })).filter(r => r.runId === runId)
+    expect(acks.map(r => [r.eventId, r.actorId, r.counted, r.stepTitle])).toEqual([[ack.id, ids.operator, true, 'Isolate the power']])
+    const signed = (await ledgerRows({ kind: 'signed-off' })).filter(r => r.runId === runId)
+    // Entered under the signer, with who sent it beside
+    expect(signed.map(r => [r.eventId, r.actorId, r.counted])).toEqual([[signoff.id, ids.trainer, true]])
+    expect(signed[0].detail).toMatchObject({ signerRole: 'trainer', sentBy: ids.operator })
+    expect(signed[0].summary).toBe('Signed off "Sign off" as trainer.')
+    // The CSV for people: readable kind, local time beside UTC (America/Chicago is UTC−6 in
+    // January: CST, IANA time zone database), details in their own columns, JSON last.
+    const [record] = (await csvRecords({ machineId: auditMachine, kind: 'hold-acknowledged', tz: 'America/Chicago' })).filter(r => r.Event === ack.id)
+    expect(record).toMatchObject({ 'When (UTC)': '2026-01-19T08:02:00.000Z', 'When (local, America/Chicago)': '2026-01-19 02:02:00', 'Kind': 'Hold acknowledged', 'Kind (code)': 'hold-acknowledged', 'Counted': 'yes', 'Step': 'Isolate the power' })
+    expect(Object.keys(record!).at(-1)).toBe('Detail (JSON)')
+    const [signedRecord] = (await csvRecords({ machineId: auditMachine, kind: 'signed-off', tz: 'America/Chicago' })).filter(r => r.Event === signoff.id)
+    expect(signedRecord).toMatchObject({ 'Kind': 'Signed off', 'Kind (code)': 'signed-off', 'Counted': 'yes', 'Step': 'Sign off' })
+    expect(JSON.parse(signedRecord!['Detail (JSON)']!)).toMatchObject({ signerId: ids.trainer })
+    // The run list follows the kind filter: only runs with a sign-off entry
+    const runs = await call('GET', `/api/ledger/runs?machineId=${auditMachine}&kind=signed-off`, { cookie: await as('owner') })
+    expect(runs.status, runs.text).toBe(200)
+    expect(runs.body.rows.map((r: any) => r.id)).toEqual([runId])
+    expect((await call('GET', '/api/ledger/export.csv?tz=Mars/Olympus', { cookie: await as('owner') })).status).toBe(400)
+  })
+
+  it('neutralises formulas in names, titles and text (OWASP CSV Injection) and keeps negative readings as numbers', async () => {
+    const owner = await as('owner')
+    const machine = await call('POST', '/api/machines', { cookie: owner, body: {
+      name: '=cmd|\' /C calc\'!A0', travelXMm: 600, travelYMm: 400, travelZMm: 80, units: 'mm',
+      spindleKind: 'air-spindle', hasLengthSensor: false, spoilboardMaterial: 'MDF', spoilboardNominalMm: 18, spoilboardMinMm: 12,
+    } })
+    expect(machine.status, machine.text).toBe(201)
+    const made = await call('POST', '/api/procedures', { cookie: owner, body: { procedure: { ...PROCEDURE, title: `@SUM A1 cmd ${Date.now()}` } } })
+    // (no regular-expression characters in the title: other files build patterns from the newest procedure's)
+    expect(made.status, made.text).toBe(201)
+    const [[shop]] = await db().query<any[]>('select shop_id from users where id = ?', [ids.owner])
+    const [person] = await db().query<any>('insert into users (shop_id, email, name, password_hash, role) values (?,?,?,?,?)', [shop.shop_id, `csv-${Date.now()}@demo.jogwise.test`, '-2+3+cmd', 'not-a-hash', 'operator'])
+    await db().query('insert into ledger_entries (shop_id, event_id, run_id, kind, actor_id, machine_id, procedure_id, step_key, at, detail) values (?,?,?,?,?,?,?,?,?,?)', [
+      shop.shop_id, uuidv7(), uuidv7(), 'out-of-range', person.insertId, machine.body.id, made.body.id, 'measure', new Date(at(20, 0)),
+      JSON.stringify({ stepTitle: '+Measure the runout', value: -0.4, unit: 'mm', side: 'below', range: '0 to 0.05 mm', reason: '=HYPERLINK("http://example.invalid","look")' }),
+    ])
+    const res = await fetch(`${process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3100'}/api/ledger/export.csv?machineId=${machine.body.id}`, { headers: { cookie: owner } })
+    const text = await res.text()
+    const [record] = parse(text, { columns: true }) as Record<string, string>[]
+    expect(record).toMatchObject({
+      'Person': '\'-2+3+cmd', 'Machine': '\'=cmd|\' /C calc\'!A0', 'Step': '\'+Measure the runout',
+      'Reason': '\'=HYPERLINK("http://example.invalid","look")', 'Reading': '-0.4', 'Unit': 'mm',
+    })
+    expect(record!.Procedure).toMatch(/^'@SUM A1 cmd \d+$/)
+    // The reading is written bare, a number a spreadsheet sums; no cell of the file starts a formula.
+    expect(text).toMatch(/,-0\.4,mm,/)
+    for (const cell of Object.values(record!)) expect(cell).not.toMatch(/^[=+@\t\r]|^-(?!\d)/)
+    // Out of service again, so other files that take the shop's first machine by name never get this one.
+    await db().query('update machines set retired_at = now(3) where id = ?', [machine.body.id])
   })
 })
 
@@ -219,22 +423,20 @@ describe('GET /api/ledger/export.csv', () => {
       if (rows.length >= res.body.total) return rows
     }
   }
-  async function csvRecords(query: Record<string, string | number>) {
-    const res = await fetch(`${process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3100'}/api/ledger/export.csv?${new URLSearchParams(Object.entries(query).map(([k, v]) => [k, String(v)]))}`, { headers: { cookie: await as('owner') } })
-    expect(res.status).toBe(200)
-    expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
-    expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename="jogwise-ledger-\d{4}-\d{2}-\d{2}\.csv"$/)
-    // csv-parse (node-csv), the reader beside the csv-stringify the server writes with
-    return parse(await res.text(), { columns: true, skip_empty_lines: true }) as Record<string, string>[]
-  }
+  // The CSV's columns from a table row (none of these cells starts a formula, so none is quoted).
   const asTable = (r: any) => ({
-    'When (UTC)': r.at, 'Kind': r.kind, 'Person': r.actorName, 'Machine': r.machineName, 'Procedure': r.procedureTitle,
-    'Step': r.stepTitle ?? '', 'What happened': r.summary, 'Run': r.runId, 'Event': r.eventId, 'Detail (JSON)': r.detail,
+    'When (UTC)': r.at, 'When (local, UTC)': r.at.slice(0, 19).replace('T', ' '), 'Received (UTC)': r.receivedAt ?? '',
+    'Kind': LEDGER_KIND_LABELS[r.kind as keyof typeof LEDGER_KIND_LABELS], 'Counted': r.counted ? 'yes' : 'no',
+    'Not counted because': r.detail.notCounted ?? '', 'Changed later': r.changedAt ? `yes, see entry ${r.changedBy}` : 'no',
+    'Person': r.actorName, 'Machine': r.machineName, 'Procedure': r.procedureTitle, 'Step': r.stepTitle ?? '', 'What happened': r.summary,
+    'Reason': r.detail.reason ?? '', 'Reading': r.detail.value === undefined ? '' : String(r.detail.value), 'Unit': r.detail.unit ?? '',
+    'Allowed range': r.detail.range ?? '', 'Signal word': r.detail.signalWord ?? '', 'Entry': String(r.id), 'Revision': String(r.revision),
+    'Run': r.runId, 'Event': r.eventId, 'Kind (code)': r.kind, 'Detail (JSON)': r.detail,
   })
 
   it('parsed back with csv-parse, equals the table\'s rows for the same filter', async () => {
     for (const query of [{ machineId }, { machineId, kind: 'override' }, { procedureId, actorId: ids.operator! }]) {
-      const records = await csvRecords(query)
+      const records = await csvRecords({ ...query, tz: 'UTC' })
       const rows = await tableRows(query)
       expect(rows.length).toBeGreaterThan(0)
       expect(records.map(r => ({ ...r, 'Detail (JSON)': JSON.parse(r['Detail (JSON)']!) }))).toEqual(rows.map(asTable))

@@ -67,6 +67,7 @@ const ROUTES: Record<string, Row> = {
   'POST /api/mail/digest': { allowed: ['owner'], probe: () => ({ path: '/api/mail/digest' }), okStatus: 200 },
   'POST /api/runs/[id]/signoff-check': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/signoff-check`, body: {} }), okStatus: 400, crossShop: true },
   'GET /api/signoff-key': { allowed: everyone, probe: () => ({ path: '/api/signoff-key' }), okStatus: 200 },
+  'GET /api/runs/[id]/audit': { allowed: everyone, probe: c => ({ path: `/api/runs/${c.runId}/audit` }), okStatus: 200, crossShop: true },
   'GET /api/ledger': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/ledger' }), okStatus: 200 },
   // A bad filter, so an allowed role gets a JSON 400 rather than a CSV download.
   'GET /api/ledger/export.csv': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/ledger/export.csv?kind=nope' }), okStatus: 400 },

@@ -79,10 +79,26 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
   expect(download.suggestedFilename()).toMatch(/^jogwise-ledger-\d{4}-\d{2}-\d{2}\.csv$/)
   const records = parse(await readFile((await download.path())!), { columns: true }) as Record<string, string>[]
   expect(records).toHaveLength(1)
-  expect(records[0]).toMatchObject({ 'Kind': 'out-of-range', 'Person': 'Priya Castell', 'Machine': 'Bench Router', 'Procedure': title, 'Step': 'Measure the runout', 'Run': runId })
+  expect(records[0]).toMatchObject({ 'Kind': 'Reading out of range', 'Kind (code)': 'out-of-range', 'Counted': 'yes', 'Reading': '0.12', 'Unit': 'mm', 'Person': 'Priya Castell', 'Machine': 'Bench Router', 'Procedure': title, 'Step': 'Measure the runout', 'Run': runId })
   expect(await rows.first().locator('td').nth(4).textContent()).toBe(records[0]!['What happened'])
 
-  // The run list under the same filters opens the run's record, with the photo itself
+  // "Record" on the row opens the run's record at that entry, highlighted, with the event it
+  // is about highlighted too and its received time beside the claimed one.
+  await rows.first().getByRole('link', { name: 'Record' }).click()
+  await page.waitForURL(new RegExp(`/runs/${runId}/record#entry-\\d+$`))
+  const entryId = new URL(page.url()).hash.slice('#entry-'.length)
+  const entry = page.locator(`#entry-${entryId}`)
+  await expect(entry).toHaveAttribute('aria-current', 'location')
+  await expect(entry).toContainText('Reading out of range')
+  await expect(entry).toBeInViewport()
+  const event = page.locator('[data-testid="record-event"][aria-current="location"]')
+  await expect(event).toContainText('Recorded a reading')
+  await expect(event.getByTestId('received-at')).toContainText('received')
+  await page.screenshot({ path: 'test-results/ledger-record-entry.png' })
+  await page.goBack()
+  await expect(rows).toHaveCount(1)
+
+  // The run list under the same filters (the kind included) opens the run's record, with the photo itself
   const run = page.getByTestId('ledger-run').filter({ hasText: title })
   await expect(run).toContainText('1 photo')
   await run.click()

@@ -70,6 +70,15 @@ test.describe('Library at 1024×768', () => {
     const original = (await body.inputValue()).replace(/ Write the reading on the board log \(edit \d+\)\./g, '')
     await body.fill(`${original} ${marker}`)
 
+    // The resurfacing procedure is long (30+ steps): one step at a time, with an outline.
+    const outline = page.getByRole('navigation', { name: 'Step outline' })
+    expect(await outline.getByRole('button').count()).toBeGreaterThanOrEqual(30)
+    await expect(page.getByRole('group', { name: /^Step \d+ · / })).toHaveCount(1)
+    // The step key is made from the title and folded away.
+    await expect(first.getByLabel('Step key')).toBeHidden()
+    await outline.getByRole('button', { name: /^2\./ }).click()
+    await expect(outline.getByRole('button', { name: /^2\./ })).toHaveAttribute('aria-current', 'step')
+
     // A broken field is refused beside the field before anything is sent.
     const hold = page.getByRole('group', { name: /^Step 2 · Hold point/ })
     const hazard = hold.getByLabel('Hazard statement')
@@ -105,6 +114,31 @@ test.describe('Library at 1024×768', () => {
     await expect(newest).toContainText('Teodor Lind')
     await expect(history.getByRole('listitem')).toHaveCount(after)
     await page.screenshot({ path: '/tmp/library-published.png' })
+  })
+
+  test('leaving the editor with unsaved changes asks first; staying keeps the changes', async ({ page }) => {
+    await signIn(page, 'trainer')
+    await openResurfacing(page)
+    await page.getByRole('link', { name: 'Edit' }).click()
+    await expect(page.getByRole('heading', { name: `Edit “${RESURFACING}”` })).toBeVisible()
+    // Nothing changed yet: leaving asks nothing.
+    const asked: string[] = []
+    page.on('dialog', (d) => { asked.push(d.message()); void (asked.length === 1 ? d.dismiss() : d.accept()) })
+    await page.getByRole('link', { name: 'Back without publishing' }).click()
+    await expect(page.getByRole('link', { name: 'Edit' })).toBeVisible()
+    expect(asked).toEqual([])
+    await page.getByRole('link', { name: 'Edit' }).click()
+    const title = page.getByLabel('Procedure title')
+    await title.fill(`${await title.inputValue()} (draft)`)
+    // First time: stay (dismissed); the change is still there.
+    await page.getByRole('link', { name: 'Back without publishing' }).click()
+    await expect.poll(() => asked.length).toBe(1)
+    expect(asked[0]).toMatch(/Leave without publishing\?/)
+    await expect(title).toHaveValue(/\(draft\)$/)
+    // Second time: leave (accepted).
+    await page.getByRole('link', { name: 'Back without publishing' }).click()
+    await expect(page.getByRole('link', { name: 'Edit' })).toBeVisible()
+    expect(asked).toHaveLength(2)
   })
 
   test('the owner marks an operator qualified; a trainer sees it read-only', async ({ page, browser }) => {

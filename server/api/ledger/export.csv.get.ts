@@ -1,12 +1,14 @@
 import { Readable } from 'node:stream'
 import { stringify } from 'csv-stringify'
-import { LedgerFilterSchema } from '#shared/schemas/ledger'
+import { LedgerExportSchema } from '#shared/schemas/ledger'
 
-// The whole filtered Ledger as CSV (csv-stringify), streamed: rows are read in keyset batches
+// The whole filtered Ledger as CSV (csv-stringify) for people (columns: ledgerCsvColumns), streamed: rows are read in keyset batches
 // and written as the client takes them, so a shop with 200,000 entries never sits in memory.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'owner', 'trainer')
-  const filter = queryValid(event, LedgerFilterSchema)
+  const { tz, ...filter } = queryValid(event, LedgerExportSchema)
+  // The local-time column uses the browser's zone (the screen sends it), else the server's.
+  const columns = ledgerCsvColumns(tz ?? Intl.DateTimeFormat().resolvedOptions().timeZone)
   const day = new Date().toISOString().slice(0, 10)
   setResponseHeaders(event, {
     'content-type': 'text/csv; charset=utf-8',
@@ -14,9 +16,9 @@ export default defineEventHandler(async (event) => {
     'cache-control': 'no-store',
   })
   async function* records() {
-    for await (const row of ledgerAll(user.shopId, filter)) yield ledgerCsvRecord(row)
+    for await (const row of ledgerAll(user.shopId, filter)) yield ledgerCsvRecord(row, columns)
   }
-  const csv = stringify({ header: true, columns: LEDGER_CSV_COLUMNS.map(c => c.header) })
+  const csv = stringify({ header: true, columns: columns.map(c => c.header) })
   const source = Readable.from(records())
   source.on('error', (err) => {
     // Headers are gone already; end the download broken rather than pretend it is complete.

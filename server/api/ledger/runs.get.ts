@@ -13,6 +13,11 @@ export default defineEventHandler(async (event) => {
   if (q.procedureId) where.push(eq(tables.procedureVersions.procedureId, q.procedureId))
   if (q.from) where.push(gte(r.startedAt, q.from))
   if (q.to) where.push(lte(r.startedAt, q.to))
+  // Runs with at least one entry of that kind (ledger_entries_shop_kind_idx)
+  if (q.kind) {
+    const l = tables.ledgerEntries
+    where.push(inArray(r.id, useDB().select({ id: l.runId }).from(l).where(and(eq(l.shopId, user.shopId), eq(l.kind, q.kind)))))
+  }
   const db = useDB()
   const byProcedure = q.procedureId !== undefined
   // Ids of the page first (runs alone, joined to versions only to filter by procedure), then
