@@ -134,7 +134,7 @@ export const runs = mysqlTable('runs', {
   procedureVersionId: int('procedure_version_id').notNull().references(() => procedureVersions.id),
   startedBy: int('started_by').notNull().references(() => users.id),
   mode: mysqlEnum('mode', ['guided', 'solo']).notNull(),
-  status: mysqlEnum('status', ['active', 'finished', 'abandoned']).notNull().default('active'),
+  status: mysqlEnum('status', ['active', 'finished', 'abandoned', 'withdrawn']).notNull().default('active'),
   currentStepKey: varchar('current_step_key', { length: 60 }),
   // Spindle time the run recorded (attached plans' cutting time and spindle-time readings),
   // kept by the fold so the due list can count spindle hours per machine.

@@ -228,7 +228,7 @@ async function usedNonce(nonce: string) {
 export const MAX_RUN_EVENTS = 2000
 export const MAX_RUN_NOTES = 500
 const RUN_RESERVE = 20
-const CLOSING_TYPES = new Set(['run.finished', 'run.abandoned', 'signoff.given'])
+const CLOSING_TYPES = new Set(['run.finished', 'run.abandoned', 'run.withdrawn', 'signoff.given'])
 
 async function runSizes(runIds: string[]) {
   const sizes = new Map<string, { events: number, notes: number }>()
@@ -422,9 +422,9 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     await recordFacing(db, shopId, run, state, steps)
     const current = state.steps[state.currentStepIndex]
     await db.update(tables.runs).set({
-      status: state.status === 'finished' ? 'finished' : state.status === 'abandoned' ? 'abandoned' : 'active',
+      status: state.status === 'finished' || state.status === 'abandoned' || state.status === 'withdrawn' ? state.status : 'active',
       currentStepKey: current?.key ?? null,
-      finishedAt: state.finished ? new Date(state.finished.at) : state.abandoned ? new Date(state.abandoned.at) : null,
+      finishedAt: state.finished ? new Date(state.finished.at) : state.abandoned ? new Date(state.abandoned.at) : state.withdrawn ? new Date(state.withdrawn.at) : null,
     }).where(eq(tables.runs.id, run.id))
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)

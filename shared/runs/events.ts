@@ -31,6 +31,7 @@ export const RUN_EVENT_TYPES = [
   'run.finished',
   'run.abandoned',
   'run.handed-over',
+  'run.withdrawn',
 ] as const
 export type RunEventType = typeof RUN_EVENT_TYPES[number]
 
@@ -165,6 +166,11 @@ export const RunHandedOverSchema = z.object({
   toUserId: positiveId('The person the run is handed to'),
 })
 
+// A run started by mistake (wrong procedure, wrong machine) is taken back before anything was
+// done in it: no reason needed, and it shows as withdrawn, not stopped. The fold refuses it once
+// any work is on the record.
+export const RunWithdrawnSchema = z.object({ ...base, type: z.literal('run.withdrawn') })
+
 export const RunEventSchema = z.discriminatedUnion('type', [
   RunStartedSchema,
   StepDoneSchema,
@@ -179,6 +185,7 @@ export const RunEventSchema = z.discriminatedUnion('type', [
   RunFinishedSchema,
   RunAbandonedSchema,
   RunHandedOverSchema,
+  RunWithdrawnSchema,
 ], {
   error: iss => iss.code === 'invalid_union'
     ? `Event type must be one of ${RUN_EVENT_TYPES.join(', ')}.`

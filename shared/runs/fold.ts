@@ -48,6 +48,7 @@ export const FLAG_CODES = [
   'not-undoable',
   'not-own-event',
   'undo-not-last',
+  'withdraw-after-work',
   // Set by the server's verdict at merge (events.ts VERDICT_CODES): kept on the record, not counted.
   'signoff-failed',
   'actor-not-allowed',
@@ -55,7 +56,7 @@ export const FLAG_CODES = [
 export type FlagCode = typeof FLAG_CODES[number]
 
 export type StepStatus = 'pending' | 'done' | 'acknowledged' | 'overridden' | 'signed'
-export type RunStatus = 'not-started' | 'active' | 'finished' | 'abandoned'
+export type RunStatus = 'not-started' | 'active' | 'finished' | 'abandoned' | 'withdrawn'
 
 export interface FoldOptions {
   /**
@@ -150,6 +151,10 @@ export interface RunState {
   finishBlockers: string[]
   finished: EventRef | null
   abandoned: (EventRef & { reason: string }) | null
+  /** Taken back before anything was done in it (no reason needed). */
+  withdrawn: EventRef | null
+  /** Something counts in the run: a step done, a hold cleared, a reading, a photo, a plan, a signature. */
+  workDone: boolean
   /** Every reading still in effect, in order, with out-of-range flags. */
   values: RecordedValue[]
   notes: RunNote[]
@@ -306,6 +311,7 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
   let started: RunStart | null = null
   let finished: EventRef | null = null
   let abandoned: (EventRef & { reason: string }) | null = null
+  let withdrawn: EventRef | null = null
   let runSignoff: SignoffRecord | null = null
   const values: RecordedValue[] = []
   let notes: RunNote[] = []
@@ -406,8 +412,8 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
       flag('wrong-run', `This event belongs to run ${e.runId}, not to run ${runId}.`)
       continue
     }
-    if (finished || abandoned) {
-      flag('after-finish', `The run had already ${finished ? 'finished' : 'been abandoned'} when this event was made.`)
+    if (finished || abandoned || withdrawn) {
+      flag('after-finish', `The run had already ${finished ? 'finished' : abandoned ? 'been abandoned' : 'been withdrawn'} when this event was made.`)
       continue
     }
 
@@ -648,7 +654,7 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
           flag('undo-of-signoff-refused', 'A sign-off stays on the record for good and cannot be undone.')
           break
         }
-        if (tt === 'run.started' || tt === 'event.undone' || tt === 'run.finished' || tt === 'run.abandoned') {
+        if (tt === 'run.started' || tt === 'event.undone' || tt === 'run.finished' || tt === 'run.abandoned' || tt === 'run.withdrawn') {
           flag('not-undoable', `A ${tt} event cannot be undone.`)
           break
         }
@@ -690,6 +696,16 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
           break
         }
         abandoned = { ...refOf(e), reason: e.reason.trim() }
+        apply(false)
+        break
+      }
+
+      case 'run.withdrawn': {
+        if (stack.length || overrides.length || signoffs.length) {
+          flag('withdraw-after-work', 'A run can be withdrawn only before anything is done in it; stop it with a reason instead.')
+          break
+        }
+        withdrawn = refOf(e)
         apply(false)
         break
       }
@@ -774,17 +790,19 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
 
   return {
     runId,
-    status: !started ? 'not-started' : finished ? 'finished' : abandoned ? 'abandoned' : 'active',
+    status: !started ? 'not-started' : finished ? 'finished' : abandoned ? 'abandoned' : withdrawn ? 'withdrawn' : 'active',
     started,
     mode: started?.mode ?? null,
     steps: stepStates,
     currentStepIndex: firstOpen === -1 ? stepStates.length : firstOpen,
     completedCount: stepStates.filter(s => s.complete).length,
     holdsCleared: holdsClearedMap,
-    canFinish: started !== null && !finished && !abandoned && finishProblem() === null,
+    canFinish: started !== null && !finished && !abandoned && !withdrawn && finishProblem() === null,
     finishBlockers,
     finished,
     abandoned,
+    withdrawn,
+    workDone: stack.length > 0 || overrides.length > 0 || signoffs.length > 0,
     values,
     notes,
     overrides,

@@ -23,7 +23,7 @@ export interface NextAction {
   stepKey: string | null
   step: ProcedureStep | null
   /** Why there is nothing to do, when action is 'none'. */
-  idle: 'not-started' | 'finished' | 'abandoned' | null
+  idle: 'not-started' | 'finished' | 'abandoned' | 'withdrawn' | null
   /** The current step is a hold not yet cleared, so a trainer or owner may override it. */
   canOverride: boolean
   /** What the undo button would undo for this person, or null to hide it. */
@@ -56,6 +56,7 @@ export function nextAction(state: RunState, steps: readonly ProcedureStep[], opt
   if (state.status === 'not-started') return idle('not-started')
   if (state.status === 'finished') return idle('finished')
   if (state.status === 'abandoned') return idle('abandoned')
+  if (state.status === 'withdrawn') return idle('withdrawn')
 
   const i = state.currentStepIndex
   const s = state.steps[i]

@@ -74,7 +74,7 @@ export type LedgerQuery = z.output<typeof LedgerQuerySchema>
 export const LedgerRunsQuerySchema = z.object({
   // A run "of a kind" has at least one Ledger entry of that kind, so the run list can follow the table.
   kind: z.enum(LEDGER_ENTRY_KINDS, { error: `kind must be one of ${LEDGER_ENTRY_KINDS.join(', ')}.` }).optional(),
-  status: z.enum(['active', 'finished', 'abandoned'], { error: 'status must be active, finished or abandoned.' }).optional(),
+  status: z.enum(['active', 'finished', 'abandoned', 'withdrawn'], { error: 'status must be active, finished, abandoned or withdrawn.' }).optional(),
   ...filterShape,
   ...page,
 }).strict().refine(fromBeforeTo, fromBeforeToIssue)

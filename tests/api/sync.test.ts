@@ -141,3 +141,29 @@ describe('POST /api/sync', () => {
     expect(big.body.message).toContain('at most 500')
   })
 })
+
+describe('withdrawing a run started by mistake', () => {
+  it('is stored as withdrawn with no reason while nothing is done, and listed as withdrawn', async () => {
+    const runId = uuidv7()
+    const res = await sync('operator', [start(runId, 'operator'), ev(runId, 'operator', 'run.withdrawn', 1)])
+    expect(res.status, res.text).toBe(200)
+    expect(res.body.rejected).toEqual([])
+    const [[row]] = await db().query<any[]>('select status, finished_at from runs where id = ?', [runId])
+    expect(row.status).toBe('withdrawn')
+    expect(row.finished_at).not.toBeNull()
+    const list = await call('GET', `/api/ledger/runs?status=withdrawn&machineId=${machineId}&pageSize=100`, { cookie: await as('owner') })
+    expect(list.status, list.text).toBe(200)
+    expect(list.body.rows.find((r: any) => r.id === runId)?.status).toBe('withdrawn')
+  })
+
+  it('does not count once work is on the record: the run stays active and the event is flagged', async () => {
+    const runId = uuidv7()
+    await sync('operator', [start(runId, 'operator'), ev(runId, 'operator', 'step.done', 1, { stepKey: 'prep' })])
+    const late = ev(runId, 'operator', 'run.withdrawn', 2)
+    const res = await sync('operator', [late])
+    expect(res.status, res.text).toBe(200)
+    const [[row]] = await db().query<any[]>('select status from runs where id = ?', [runId])
+    expect(row.status).toBe('active')
+    expect((await rowsOf(runId)).find((r: any) => r.id === late.id)?.flag).toBe('withdraw-after-work')
+  })
+})

@@ -141,3 +141,17 @@ test('a trainee\'s sign-off keeps the hold being signed in view beside the signe
   expect(contrast(fg!, bg!)).toBeGreaterThanOrEqual(4.5)
   for (const name of SIDE) expect(await inView(page, page.getByRole(name === 'Who did what' ? 'link' : 'button', { name })), name).toBe(true)
 })
+
+test('a run started by mistake is withdrawn without a reason and listed as withdrawn', async ({ page }) => {
+  await signIn(page, 'trainer')
+  const made = await page.request.post('/api/procedures', { data: { procedure: { ...longProcedure('withdraw'), title: `Withdraw check ${stamp}` } } })
+  expect(made.status(), await made.text()).toBe(201)
+  const runId = await startProcedure(page, 'Bench Router', new RegExp(`Withdraw check ${stamp}`))
+  await expect(page.getByRole('button', { name: 'Stop the run' })).toHaveCount(0)
+  await page.getByRole('button', { name: 'Withdraw the run' }).click()
+  await page.getByRole('button', { name: 'Withdraw this run' }).click()
+  await expect(page.getByText('This run was withdrawn before anything was done.')).toBeVisible()
+  await expect.poll(async () => (await (await page.request.get(`/api/runs/${runId}`)).json()).run?.status, { timeout: 20_000 }).toBe('withdrawn')
+  await page.goto('/ledger')
+  await expect(page.getByTestId('ledger-run').filter({ hasText: `Withdraw check ${stamp}` })).toContainText('Withdrawn')
+})

@@ -100,7 +100,7 @@ describe('the fold and the Ledger with server verdicts', () => {
     // Work after the unsigned hold did not count either (fold rule: holds block what follows).
     expect(s.flagged.some(f => f.code === 'passed-unsigned-hold')).toBe(true)
     const entries = ledgerEntriesOf(s, STEPS).filter(e => e.kind === 'signoff-failed')
-    expect(entries).toEqual([{ eventId: events[i]!.id, kind: 'signoff-failed', actorId: TRAINER, stepKey: 'isolate', at: events[i]!.at, detail: { stepTitle: 'Isolate the power', signerId: TRAINER, signerRole: 'trainer', reason } }])
+    expect(entries).toEqual([{ eventId: events[i]!.id, kind: 'signoff-failed', actorId: TRAINER, stepKey: 'isolate', at: events[i]!.at, counted: true, detail: { stepTitle: 'Isolate the power', signerId: TRAINER, signerRole: 'trainer', reason } }])
   })
 
   it('an event refused for its actor is kept on the record, flagged, and not counted', () => {

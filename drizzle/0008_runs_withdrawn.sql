@@ -1,0 +1,1 @@
+ALTER TABLE `runs` MODIFY COLUMN `status` enum('active','finished','abandoned','withdrawn') NOT NULL DEFAULT 'active';
