@@ -1,6 +1,7 @@
 import { foldRun, makeEvent, newRunId, nextAction } from '#shared/runs'
 import type { RunEvent, RunEventPayload, RunEventType, RunMode } from '#shared/runs'
 import type { ProcedureStep } from '#shared/procedures'
+import type { LengthUnit } from '#shared/machining'
 import type { ServerEvent } from '#shared/schemas/sync'
 
 // A run on this tablet: the exact procedure version it follows, the events the server has,
@@ -12,6 +13,8 @@ export interface RunSnapshot {
   runId: string
   machineId: number
   machineName: string
+  /** The machine's own length units: checks written in mm or in are shown in these. */
+  machineUnits?: LengthUnit
   version: RunVersion
   serverEvents: ServerEvent[]
   /** Names of the people in the run's record, by user id. */
@@ -44,11 +47,13 @@ export function useRun(runId: string) {
       // Offline the service worker answers from its cache with the server's original Date header.
       const servedAt = Date.parse(raw.headers.get('date') ?? '')
       const saved = Number.isFinite(servedAt) && Date.now() - servedAt > 120_000
-      const machines = await $fetch<{ id: number, name: string }[]>('/api/machines', { timeout: 8000 }).catch(() => [])
+      const machines = await $fetch<{ id: number, name: string, units: LengthUnit }[]>('/api/machines', { timeout: 8000 }).catch(() => [])
+      const machine = machines.find(m => m.id === res.run.machineId)
       snapshot.value = {
         runId,
         machineId: res.run.machineId,
-        machineName: machines.find(m => m.id === res.run.machineId)?.name ?? cached?.machineName ?? 'Machine',
+        machineName: machine?.name ?? cached?.machineName ?? 'Machine',
+        machineUnits: machine?.units ?? cached?.machineUnits,
         version: res.version,
         serverEvents: res.events,
         people: res.people,
@@ -102,11 +107,11 @@ export function useRun(runId: string) {
 }
 
 /** Starts a run on this tablet (also offline) and returns its id. */
-export async function startRun(args: { machine: { id: number, name: string }, version: RunVersion, mode: RunMode }) {
+export async function startRun(args: { machine: { id: number, name: string, units?: LengthUnit }, version: RunVersion, mode: RunMode }) {
   const { user } = useUserSession()
   if (!user.value) throw new Error('Sign in first.')
   const runId = newRunId()
-  const snapshot: RunSnapshot = { runId, machineId: args.machine.id, machineName: args.machine.name, version: args.version, serverEvents: [], savedAt: new Date().toISOString() }
+  const snapshot: RunSnapshot = { runId, machineId: args.machine.id, machineName: args.machine.name, machineUnits: args.machine.units, version: args.version, serverEvents: [], savedAt: new Date().toISOString() }
   await localStore.set(snapshotKey(runId), JSON.parse(JSON.stringify(snapshot)))
   const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId() }, 'run.started', {
     procedureVersionId: args.version.id, machineId: args.machine.id, mode: args.mode,
