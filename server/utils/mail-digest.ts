@@ -101,13 +101,27 @@ export async function enqueueShopDigest(shopId: number, now = new Date()): Promi
 }
 
 let doneForDay = ''
+const DIGEST_LEASE = 'daily-digest'
+// Long enough for every shop's digest to be queued by one server.
+const DIGEST_LEASE_MS = 10 * 60_000
 
-/** Called by the outbox worker: after the digest hour, each shop's digest once per day. */
+/**
+ * Called by the outbox worker: after the digest hour, each shop's digest once per day, by one
+ * app server of the cluster (the holder of the `daily-digest` lease row, which also records the
+ * day done). The dedupe keys still make a second enqueue a no-op.
+ */
 export async function enqueueDigestsWhenDue(now = new Date()) {
   const day = localDay(now)
   if (doneForDay === day || now.getHours() < mailSettings().digestHour) return
-  // Every shop
-  const shops = await useDB().select({ id: tables.shops.id }).from(tables.shops)
-  for (const shop of shops) await enqueueShopDigest(shop.id, now)
+  if (await leaseDoneFor(DIGEST_LEASE) === day) { doneForDay = day; return }
+  if (!await claimLease(DIGEST_LEASE, DIGEST_LEASE_MS, now)) return
+  // Another server may have finished the day between the look and the claim.
+  if (await leaseDoneFor(DIGEST_LEASE) !== day) {
+    // Every shop
+    const shops = await useDB().select({ id: tables.shops.id }).from(tables.shops)
+    for (const shop of shops) await enqueueShopDigest(shop.id, now)
+    await markLeaseDone(DIGEST_LEASE, day)
+  }
   doneForDay = day
+  await releaseLease(DIGEST_LEASE)
 }

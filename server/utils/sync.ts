@@ -137,7 +137,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
   // 4. Store, fold the touched runs again and keep their summary and flags current.
   const touched = [...new Set(toInsert.map(e => e.runId))]
   if (toInsert.length) {
-    await db.transaction(async (tx) => {
+    await withWriteRetry(() => db.transaction(async (tx) => {
       if (newRuns.size) await tx.insert(tables.runs).ignore().values([...newRuns.values()])
       await tx.insert(tables.runEvents).ignore().values(toInsert.map(e => ({
         id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
@@ -146,7 +146,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest): Promise<S
       await refoldRuns(tx as unknown as DB, user.shopId, touched)
       // Owner alerts for overrides stored by this batch, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(tx, user, toInsert)
-    })
+    }))
   }
 
   // 5. What the tablet does not have yet of the runs it sent or watches.

@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
   // The shop's name, for the mail
   const [shop] = await db.select({ name: tables.shops.name }).from(tables.shops).where(eq(tables.shops.id, owner.shopId)).limit(1)
   const link = `${siteUrl()}/join/${token}`
-  const id = await db.transaction(async (tx) => {
+  const id = await withWriteRetry(() => db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(tables.invites).values({
       shopId: owner.shopId, email: body.email, role: body.role, tokenHash: hash, invitedBy: owner.id, expiresAt,
     }).$returningId() as [{ id: number }]
@@ -38,7 +38,7 @@ export default defineEventHandler(async (event) => {
       ].join('\n\n'),
     })
     return id
-  })
+  }))
   await recordAudit(owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
   setResponseStatus(event, 201)
   return { id, email: body.email, role: body.role, status: 'pending' as const, expiresAt: expiresAt.toISOString() }

@@ -10,8 +10,8 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This procedure is retired; bring it back before publishing a new version.' })
   }
   const { procedure, changeNote } = await readValid(event, ProcedurePublishSchema)
-  const result = await useDB().transaction(tx =>
-    publishVersion(tx, { shopId: user.shopId, procedureId: existing.id, procedure, createdBy: user.id, changeNote: changeNote ?? null }))
+  const result = await withWriteRetry(() => useDB().transaction(tx =>
+    publishVersion(tx, { shopId: user.shopId, procedureId: existing.id, procedure, createdBy: user.id, changeNote: changeNote ?? null })))
   await recordAudit(user, 'procedure.published', 'procedure', existing.id, { version: result.version })
   return { id: existing.id, ...result }
 })

@@ -11,10 +11,10 @@ export default defineEventHandler(async (event) => {
     .where(and(eq(tables.procedures.shopId, user.shopId), sql`${tables.procedures.slug} like ${`${base}%`}`))).map(r => r.slug))
   let slug = base
   for (let n = 2; taken.has(slug); n++) slug = `${base}-${n}`
-  const result = await db.transaction(async (tx) => {
+  const result = await withWriteRetry(() => db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(tables.procedures).values({ shopId: user.shopId, slug, category: procedure.category }).$returningId() as [{ id: number }]
     return { id, ...await publishVersion(tx, { shopId: user.shopId, procedureId: id, procedure, createdBy: user.id, changeNote: changeNote ?? 'First version' }) }
-  })
+  }))
   await recordAudit(user, 'procedure.published', 'procedure', result.id, { version: result.version })
   setResponseStatus(event, 201)
   return result
