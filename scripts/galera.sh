@@ -58,7 +58,7 @@ start() {
     --wsrep-node-name="node$n" --wsrep-node-address="127.0.0.1:$gcomm_port" \
     --wsrep-provider-options="gmcast.listen_addr=tcp://127.0.0.1:$gcomm_port;ist.recv_addr=127.0.0.1:$ist_port;gcache.size=128M;pc.wait_prim_timeout=PT30S" \
     --wsrep-sst-method=jogwise_rsync --wsrep-sst-receive-address="127.0.0.1:$sst_port" \
-    --wsrep-sync-wait=1 --wsrep-slave-threads=2 \
+    --wsrep-sync-wait=1 --wsrep-slave-threads=2 --log-bin-trust-function-creators=1 \
     </dev/null >/dev/null 2>&1 &
   local i=0
   until running && [ "$(client -N -e "SHOW STATUS LIKE 'wsrep_ready'" 2>/dev/null | awk '{print $2}')" = "ON" ]; do
