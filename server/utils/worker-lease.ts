@@ -14,6 +14,10 @@ export const LEASE_HOLDER = `${hostname().slice(0, 48)}:${process.pid}:${randomU
 
 type Affected = [{ affectedRows: number }]
 
+// Leases this process has taken, so a shutdown only touches the database when it held one (a
+// build's prerender starts and closes the app without ever opening the database).
+const held = new Set<string>()
+
 /** Takes or renews the lease `name` for `ttlMs`; true when this process holds it now. */
 export async function claimLease(name: string, ttlMs: number, now = new Date()): Promise<boolean> {
   const db = useDB()
@@ -22,19 +26,25 @@ export async function claimLease(name: string, ttlMs: number, now = new Date()):
   return withWriteRetry(async () => {
     // A new lease row, unless there is one already
     const [created] = await db.insert(t).ignore().values({ name, holder: LEASE_HOLDER, expiresAt }) as unknown as Affected
-    if (created.affectedRows === 1) return true
+    if (created.affectedRows === 1) {
+      held.add(name)
+      return true
+    }
     // Ours to renew, or someone else's that ran out
     const [taken] = await db.update(t).set({ holder: LEASE_HOLDER, expiresAt })
       .where(and(eq(t.name, name), or(eq(t.holder, LEASE_HOLDER), lt(t.expiresAt, now)))) as unknown as Affected
+    if (taken.affectedRows === 1) held.add(name)
+    else held.delete(name)
     return taken.affectedRows === 1
   })
 }
 
 /** Gives the lease up at once (on shutdown), so another server need not wait for it to run out. */
 export async function releaseLease(name: string) {
+  if (!held.delete(name)) return
   const t = tables.workerLeases
   // Only while it is still ours
-  await useDB().update(t).set({ expiresAt: new Date(0) }).where(and(eq(t.name, name), eq(t.holder, LEASE_HOLDER)))
+  await useDB().update(t).set({ expiresAt: new Date(Date.now() - 1000) }).where(and(eq(t.name, name), eq(t.holder, LEASE_HOLDER)))
 }
 
 /** The period a once-only job last ran for (e.g. the digest's day), or null. */
