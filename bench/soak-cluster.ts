@@ -7,7 +7,7 @@
 // (npm run soak:cluster), which makes the cluster, the build and the environment, and stops
 // everything on exit; this file starts, kills and restarts the app servers and the one node.
 import { execFile, spawn, type ChildProcess } from 'node:child_process'
-import { openSync, writeFileSync } from 'node:fs'
+import { openSync, readFileSync, writeFileSync } from 'node:fs'
 import { isDeepStrictEqual, promisify } from 'node:util'
 import mysql from 'mysql2/promise'
 import { foldRun, type RunEvent } from '../shared/runs'
@@ -157,12 +157,18 @@ async function main() {
     await sleep(Math.max(0, NODE_DOWN_FOR_S * 1000 - 2000))
     say(`fault: starting database node ${KILLED_NODE} again`)
     const t0 = performance.now()
+    const logOf = (n: number) => `${process.env.GALERA_DATA_DIR ?? '.data'}/${process.env.GALERA_PREFIX ?? 'galera-soak'}-${n}/error.log`
+    const linesOf = (n: number) => readFileSync(logOf(n), 'utf8').split('\n')
+    const before = NODE_PORTS.map((_, i) => linesOf(i + 1).length)
     await run('bash', ['scripts/galera.sh', 'start', String(KILLED_NODE)], { env: process.env })
     const synced = await waitSynced(port, 120)
-    const log = await run('grep', ['-cE', 'IST received|Receiving IST', `${process.env.GALERA_DATA_DIR ?? '.data'}/${process.env.GALERA_PREFIX ?? 'galera-soak'}-${KILLED_NODE}/error.log`]).then(r => Number(r.stdout.trim()), () => 0)
-    const sst = await run('grep', ['-c', 'SST received', `${process.env.GALERA_DATA_DIR ?? '.data'}/${process.env.GALERA_PREFIX ?? 'galera-soak'}-${KILLED_NODE}/error.log`]).then(r => Number(r.stdout.trim()), () => 0)
+    // How it rejoined: the donor's log since the restart. A donor serving IST runs the SST
+    // script with --bypass (nothing copied); without it the joiner got a full copy (SST).
+    const donorLines = NODE_PORTS.flatMap((_, i) => i + 1 === KILLED_NODE ? [] : linesOf(i + 1).slice(before[i]! - 1))
+      .filter(l => /Running: 'wsrep_sst_\S+ --role 'donor'/.test(l))
+    const how = !donorLines.length ? 'with no state transfer seen' : donorLines.every(l => l.includes('--bypass')) ? 'by IST (only the write-sets it missed)' : 'by SST (a full copy)'
     down.node = false; setPhase(loadOver)
-    faults.push(`database node ${KILLED_NODE} SIGKILLed at ${NODE_KILL_AT_S} s, started again after ${NODE_DOWN_FOR_S} s, ${synced ? `Synced again in ${ms(performance.now() - t0)} (cluster size ${synced.wsrep_cluster_size})` : 'NOT synced within 120 s'}; its log shows ${log} IST line(s) and ${sst} SST line(s) in all (the first join included)`)
+    faults.push(`database node ${KILLED_NODE} SIGKILLed at ${NODE_KILL_AT_S} s, started again after ${NODE_DOWN_FOR_S} s, ${synced ? `Synced again in ${ms(performance.now() - t0)} (cluster size ${synced.wsrep_cluster_size}), rejoined ${how}` : 'NOT synced within 120 s'}`)
     say(faults.at(-1)!)
     return !!synced
   })()

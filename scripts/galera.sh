@@ -39,6 +39,21 @@ start() {
   fi
   running && { log "Galera node $n already running"; return 0; }
   local address="gcomm://$peers"
+  local position=()
+  # After a crash grastate.dat says seqno -1: recover the last committed position from InnoDB
+  # first (what the packaged galera_recovery does), so the node asks for IST, not a full SST.
+  if [ "${1:-}" != "bootstrap" ] && grep -q '^seqno: *-1' "$dir/data/grastate.dat" 2>/dev/null; then
+    "$(command -v mariadbd || echo /usr/sbin/mariadbd)" --no-defaults --datadir="$dir/data" --user=root \
+      --innodb-buffer-pool-size=64M --innodb-log-file-size=48M --binlog-format=ROW --default-storage-engine=InnoDB \
+      --wsrep-on=ON --wsrep-provider=/usr/lib/galera/libgalera_smm.so --wsrep-recover --skip-networking \
+      --socket="$dir/recover.sock" --pid-file="$dir/recover.pid" --log-error="$dir/recover.log" >/dev/null 2>&1 || true
+    local recovered
+    recovered="$(grep -o 'Recovered position: [0-9a-f-]*:[0-9-]*' "$dir/recover.log" | tail -1 | sed 's/Recovered position: //')"
+    if [ -n "$recovered" ]; then
+      position=(--wsrep-start-position="$recovered")
+      log "node $n recovered its position $recovered"
+    fi
+  fi
   if [ "${1:-}" = "bootstrap" ]; then
     address="gcomm://"
     # A new cluster starts from this node's data, which must be marked safe to do so.
@@ -58,7 +73,7 @@ start() {
     --wsrep-node-name="node$n" --wsrep-node-address="127.0.0.1:$gcomm_port" \
     --wsrep-provider-options="gmcast.listen_addr=tcp://127.0.0.1:$gcomm_port;ist.recv_addr=127.0.0.1:$ist_port;gcache.size=128M;pc.wait_prim_timeout=PT30S" \
     --wsrep-sst-method=jogwise_rsync --wsrep-sst-receive-address="127.0.0.1:$sst_port" \
-    --wsrep-sync-wait=1 --wsrep-slave-threads=2 --log-bin-trust-function-creators=1 \
+    --wsrep-sync-wait=1 --wsrep-slave-threads=2 --log-bin-trust-function-creators=1 ${position[@]+"${position[@]}"} \
     </dev/null >/dev/null 2>&1 &
   local i=0
   until running && [ "$(client -N -e "SHOW STATUS LIKE 'wsrep_ready'" 2>/dev/null | awk '{print $2}')" = "ON" ]; do
