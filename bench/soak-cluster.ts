@@ -145,6 +145,15 @@ async function main() {
   // Fault 1: one database node killed (SIGKILL) and started again; it rejoins by IST or SST.
   const faults: string[] = []
   const nodeFault = (async () => {
+    try { return await nodeKillAndRejoin() }
+    catch (error: any) {
+      down.node = false; setPhase(loadOver)
+      faults.push(`database node ${KILLED_NODE}: ${String(error?.message ?? error).split('\n')[0]}`)
+      say(faults.at(-1)!)
+      return false
+    }
+  })()
+  async function nodeKillAndRejoin() {
     await sleep(NODE_KILL_AT_S * 1000)
     const port = NODE_PORTS[KILLED_NODE - 1]!
     say(`fault: SIGKILL to database node ${KILLED_NODE} (127.0.0.1:${port}), app server A's first node`)
@@ -171,7 +180,7 @@ async function main() {
     faults.push(`database node ${KILLED_NODE} SIGKILLed at ${NODE_KILL_AT_S} s, started again after ${NODE_DOWN_FOR_S} s, ${synced ? `Synced again in ${ms(performance.now() - t0)} (cluster size ${synced.wsrep_cluster_size}), rejoined ${how}` : 'NOT synced within 120 s'}`)
     say(faults.at(-1)!)
     return !!synced
-  })()
+  }
 
   // Fault 2: an app server killed (SIGKILL) with batches in flight, and started again.
   await sleep(Math.max(0, APP_KILL_AT_S * 1000 - (Date.now() - loadStart)))

@@ -45,10 +45,11 @@ start() {
   if [ "${1:-}" != "bootstrap" ] && grep -q '^seqno: *-1' "$dir/data/grastate.dat" 2>/dev/null; then
     "$(command -v mariadbd || echo /usr/sbin/mariadbd)" --no-defaults --datadir="$dir/data" --user=root \
       --innodb-buffer-pool-size=64M --innodb-log-file-size=48M --binlog-format=ROW --default-storage-engine=InnoDB \
-      --wsrep-on=ON --wsrep-provider=/usr/lib/galera/libgalera_smm.so --wsrep-recover --skip-networking \
+      --wsrep-on=ON --wsrep-provider=/usr/lib/galera/libgalera_smm.so --wsrep-cluster-address="gcomm://$peers" --wsrep-recover --skip-networking \
       --socket="$dir/recover.sock" --pid-file="$dir/recover.pid" --log-error="$dir/recover.log" >/dev/null 2>&1 || true
     local recovered
-    recovered="$(grep -o 'Recovered position: [0-9a-f-]*:[0-9-]*' "$dir/recover.log" | tail -1 | sed 's/Recovered position: //')"
+    # The position line may run straight into the next line's date.
+    recovered="$(perl -ne 'print "$1\n" if /Recovered position: ([0-9a-f-]{36}:-?\d+?)(?=\d{4}-\d\d-\d\d|\s|$)/' "$dir/recover.log" 2>/dev/null | tail -1)"
     if [ -n "$recovered" ]; then
       position=(--wsrep-start-position="$recovered")
       log "node $n recovered its position $recovered"

@@ -13,6 +13,8 @@ let versionId: number
 let machineId: number
 
 const STEPS = Array.from({ length: 12 }, (_, i) => ({ key: `s${i + 1}`, kind: 'instruction', title: `Cluster step ${i + 1}`, body: `Do part ${i + 1} of the work.` }))
+// Every procedure ends with a sign-off (shared/procedures/schema.ts); the runs here never reach it.
+const SIGN = { key: 'sign', kind: 'signoff', title: 'Sign off', body: 'Sign the run.', statement: 'The work is done and the machine is safe.' }
 
 async function post(url: string, path: string, cookie: string, body: unknown) {
   const res = await fetch(url + path, { method: 'POST', headers: { 'content-type': 'application/json', accept: 'application/json', cookie }, body: JSON.stringify(body) })
@@ -31,8 +33,8 @@ async function login(url: string, email: string, password: string) {
 beforeAll(async () => {
   b = await startApp({})
   for (const role of ['owner', 'operator'] as const) ids[role] = (await get(BASE_URL, '/api/me', await as(role))).body.user.id
-  const made = await post(BASE_URL, '/api/procedures', await as('owner'), { procedure: { title: 'Cluster merge procedure', summary: 'Twelve plain steps, for the two-server merge checks.', category: 'daily', steps: STEPS } })
-  expect(made.status).toBe(201)
+  const made = await post(BASE_URL, '/api/procedures', await as('owner'), { procedure: { title: 'Cluster merge procedure', summary: 'Twelve plain steps, for the two-server merge checks.', category: 'daily', steps: [...STEPS, SIGN] } })
+  expect(made.status, JSON.stringify(made.body)).toBe(201)
   versionId = made.body.versionId
   machineId = (await get(BASE_URL, '/api/machines', await as('owner'))).body[0].id
 })
