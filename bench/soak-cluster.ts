@@ -105,6 +105,7 @@ async function main() {
     catch (error) { if (i >= 60) throw error; await sleep(500) }
   }
   const tablets = await makeTablets(apps[0]!.base, owner.cookie, TABLETS, n => apps[n % apps.length]!.base, stats)
+  for (const t of tablets) t.twinBase = apps[(t.n + 1) % apps.length]!.base
   say(`${TABLETS} operators created and signed in, ${tablets.filter(t => t.base === apps[0]!.base).length} on A and ${tablets.filter(t => t.base !== apps[0]!.base).length} on the other`)
 
   const loadStart = Date.now()
@@ -251,6 +252,7 @@ async function main() {
     `read latency:       p50 ${ms(percentile(stats.readLatency, 50))}, p95 ${ms(percentile(stats.readLatency, 95))}, p99 ${ms(percentile(stats.readLatency, 99))}`,
     `all requests:       ${syncs + reads} (${((syncs + reads) / loadSeconds).toFixed(1)}/s); failed answers outside the faults: ${stats.errorsOutside()}`,
     `replayed batches:   ${stats.replaysSent} events sent a second time and answered, ${stats.replaysAccepted} of them accepted again as replays`,
+    `twin batches:       ${stats.twinsSent} batches sent to both app servers at the same moment, ${stats.twinsBothOk} answered 200 by both`,
     ...stats.phaseLines(),
     `503 during faults:  ${stats.samples503[0] ?? '(none seen)'}`,
     ...faults.map(f => `fault:              ${f}`),

@@ -24,6 +24,9 @@ export class SoakStats {
   syncInFlight = 0
   replaysSent = 0
   replaysAccepted = 0
+  /** Batches sent to two app servers at the same moment (soak:cluster), and answered 200 by both. */
+  twinsSent = 0
+  twinsBothOk = 0
   rejected: { id: string, reason: string }[] = []
 
   count(kind: 'sync' | 'read', outcome: { status?: number, network?: boolean, timeout?: boolean }) {
@@ -101,6 +104,8 @@ export class Tablet {
   retryAt = 0
   current: string | null = null
   sending = false
+  /** Another app server: now and then a batch goes to both at once (soak:cluster). */
+  twinBase = ''
 
   /** `base` is the app server this tablet talks to (a sticky load balancer's choice). */
   constructor(readonly n: number, readonly email: string, readonly machineId: number, readonly procedures: Procedure[], readonly base: string, readonly stats: SoakStats) {
@@ -158,8 +163,23 @@ export class Tablet {
     const t0 = performance.now()
     stats.syncInFlight++
     try {
-      const answer = await api(this.base, 'POST', '/api/sync', { cookie: this.cookie, body: { deviceId: this.deviceId, events: batch } })
+      const body = { deviceId: this.deviceId, events: batch }
+      // Now and then the same batch to two app servers at the same moment, as when a tablet's
+      // retry meets a load balancer that switched servers: both must store it once together.
+      const twin = this.twinBase && Math.random() < 0.1
+        ? api(this.twinBase, 'POST', '/api/sync', { cookie: this.cookie, body }).catch(() => null)
+        : null
+      const answer = await api(this.base, 'POST', '/api/sync', { cookie: this.cookie, body })
       stats.syncLatency.push(performance.now() - t0)
+      if (twin) {
+        const other = await twin
+        stats.twinsSent++
+        if (other) stats.count('sync', { status: other.status })
+        if (other?.status === 200 && answer.status === 200) {
+          stats.twinsBothOk++
+          for (const r of other.body.rejected) stats.rejected.push(r)
+        }
+      }
       stats.count('sync', { status: answer.status })
       if (answer.status === 401) { await this.signIn(); return }
       if (answer.status !== 200) {
