@@ -8,11 +8,9 @@ import { openSync, writeFileSync } from 'node:fs'
 import { isDeepStrictEqual, promisify } from 'node:util'
 import autocannon from 'autocannon'
 import mysql from 'mysql2/promise'
-import { foldRun, makeEvent, newRunId, nextAction, type RunEvent } from '../shared/runs'
-import type { ProcedureStep } from '../shared/procedures/schema'
-import { nextDelay } from '../utils/backoff'
+import { foldRun } from '../shared/runs'
+import { api as apiAt, canon, env, makeTablets, ms, percentile, signIn as signInAt, sleep, SoakStats, type Tally } from './soak-kit'
 
-const env = (name: string, fallback: string) => process.env[name] || fallback
 const PORT = Number(env('SOAK_PORT', '3134'))
 const BASE = `http://127.0.0.1:${PORT}`
 const TABLETS = Number(env('SOAK_TABLETS', '50'))
@@ -29,39 +27,18 @@ const SERVER_ENTRY = env('SOAK_SERVER_ENTRY', '.data/soak-output/server/index.mj
 const SERVER_LOG = env('SOAK_SERVER_LOG', '.data/soak-server.log')
 const SERVER_PIDFILE = env('SOAK_SERVER_PIDFILE', '.data/soak-server.pid')
 const DEMO_PASSWORD = env('NUXT_DEMO_PASSWORD', 'shopfloor-demo-1')
-const PASSWORD = 'soak-tablet-password-1'
 const REQUEST_TIMEOUT_MS = 15_000
 
 const run = promisify(execFile)
-const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
 const started = performance.now()
 const clock = () => ((performance.now() - started) / 1000).toFixed(1).padStart(6)
 const say = (text: string) => console.log(`[soak ${clock()} s] ${text}`)
 
-// ---------------------------------------------------------------- phases and counters
+// ---------------------------------------------------------------- phases and counters (soak-kit.ts)
 
-type Phase = 'steady' | 'db-down' | 'app-down' | 'drain'
-let phase: Phase = 'steady'
-interface Tally { requests: number, ok: number, statuses: Record<string, number>, network: number, timeouts: number }
-const tally = () => ({ requests: 0, ok: 0, statuses: {}, network: 0, timeouts: 0 }) as Tally
-const byPhase: Record<string, { sync: Tally, read: Tally }> = {}
-const phaseTally = (kind: 'sync' | 'read') => ((byPhase[phase] ??= { sync: tally(), read: tally() })[kind])
-const syncLatency: number[] = []
-const readLatency: number[] = []
-const samples503: string[] = []
-let syncInFlight = 0
-let replaysSent = 0
-let replaysAccepted = 0
-let rejected: { id: string, reason: string }[] = []
-
-function count(kind: 'sync' | 'read', outcome: { status?: number, network?: boolean, timeout?: boolean }) {
-  const t = phaseTally(kind)
-  t.requests++
-  if (outcome.timeout) t.timeouts++
-  else if (outcome.network) t.network++
-  else if (outcome.status! >= 200 && outcome.status! < 300) t.ok++
-  else t.statuses[outcome.status!] = (t.statuses[outcome.status!] ?? 0) + 1
-}
+const stats = new SoakStats()
+const { byPhase, syncLatency, readLatency, samples503, rejected } = stats
+const count = stats.count.bind(stats)
 
 // ---------------------------------------------------------------- the app server
 
@@ -89,143 +66,10 @@ async function startServer() {
   throw new Error(`the app server did not become ready (log: ${SERVER_LOG})`)
 }
 
-// ---------------------------------------------------------------- HTTP helpers
+// ---------------------------------------------------------------- HTTP helpers (soak-kit.ts)
 
-async function api(method: string, path: string, opts: { cookie?: string, body?: unknown } = {}) {
-  const res = await fetch(BASE + path, {
-    method,
-    headers: { accept: 'application/json', ...(opts.body ? { 'content-type': 'application/json' } : {}), ...(opts.cookie ? { cookie: opts.cookie } : {}) },
-    body: opts.body ? JSON.stringify(opts.body) : undefined,
-    signal: AbortSignal.timeout(REQUEST_TIMEOUT_MS),
-  })
-  const text = await res.text()
-  let body: any
-  try { body = JSON.parse(text) }
-  catch {}
-  return { status: res.status, body, text, res }
-}
-
-async function signIn(email: string, password: string) {
-  const answer = await api('POST', '/api/auth/login', { body: { email, password } })
-  if (answer.status !== 200) throw new Error(`sign-in of ${email}: ${answer.status} ${answer.text}`)
-  return { cookie: answer.res.headers.getSetCookie().map(c => c.split(';')[0]).join('; '), user: answer.body.user }
-}
-
-// ---------------------------------------------------------------- one tablet
-
-interface Procedure { id: number, slug: string, current: { id: number, steps: ProcedureStep[] } }
-
-class Tablet {
-  readonly deviceId: string
-  cookie = ''
-  userId = 0
-  /** Events waiting for the server, oldest first, kept until accepted (the app's queue). */
-  queue: RunEvent[] = []
-  /** Every event this tablet made, by run: the tablet's own log. */
-  runs = new Map<string, { steps: ProcedureStep[], events: RunEvent[] }>()
-  made = 0
-  failures = 0
-  retryAt = 0
-  current: string | null = null
-  sending = false
-
-  constructor(readonly n: number, readonly email: string, readonly machineId: number, readonly procedures: Procedure[]) {
-    this.deviceId = `soak-tablet-${String(n).padStart(2, '0')}`
-  }
-
-  async signIn() {
-    const s = await signIn(this.email, PASSWORD)
-    this.cookie = s.cookie
-    this.userId = s.user.id
-  }
-
-  private append(event: RunEvent) {
-    this.runs.get(event.runId)!.events.push(event)
-    this.queue.push(event)
-    this.made++
-  }
-
-  /** One tap on the Run screen: whatever the fold says comes next, made on the tablet. */
-  tap() {
-    const ctx = { runId: this.current ?? '', actorId: this.userId, deviceId: this.deviceId }
-    const log = this.current ? this.runs.get(this.current)! : null
-    const state = log ? foldRun(log.steps, log.events) : null
-    const next = state && log ? nextAction(state, log.steps, { actorId: this.userId }) : null
-    if (!log || !next || next.action === 'none') {
-      const procedure = this.procedures[(this.n + this.runs.size) % this.procedures.length]!
-      this.current = newRunId()
-      this.runs.set(this.current, { steps: procedure.current.steps, events: [] })
-      this.append(makeEvent({ ...ctx, runId: this.current }, 'run.started', { procedureVersionId: procedure.current.id, machineId: this.machineId, mode: 'solo' }))
-      return
-    }
-    if (Math.random() < 0.08) {
-      this.append(makeEvent(ctx, 'note.added', { stepKey: next.stepKey ?? undefined, text: `Soak note from ${this.deviceId}: dust shoe brushes checked.` }))
-      return
-    }
-    const step = next.step as any
-    switch (next.action) {
-      case 'acknowledge-hold': this.append(makeEvent(ctx, 'hold.acknowledged', { stepKey: next.stepKey! })); break
-      case 'mark-done': this.append(makeEvent(ctx, 'step.done', { stepKey: next.stepKey! })); break
-      case 'record-value': this.append(makeEvent(ctx, 'value.recorded', { stepKey: next.stepKey!, value: (step.min + step.max) / 2, unit: step.unit, reason: undefined })); break
-      case 'finish': this.append(makeEvent(ctx, 'run.finished')); break
-      default:
-        // Solo runs of these procedures need no signature or photo; anything else ends the run.
-        this.append(makeEvent(ctx, 'run.abandoned', { reason: `The soak tablet cannot do "${next.action}" on its own, so it stops this run.` }))
-    }
-  }
-
-  /** Sends what waits (at most 500), like stores/sync.ts: backoff with jitter after a failure. */
-  async sync(): Promise<void> {
-    // One request at a time per tablet, as the app's store does.
-    if (this.sending || !this.queue.length || Date.now() < this.retryAt) return
-    this.sending = true
-    const batch = this.queue.slice(0, 500)
-    const t0 = performance.now()
-    syncInFlight++
-    try {
-      const answer = await api('POST', '/api/sync', { cookie: this.cookie, body: { deviceId: this.deviceId, events: batch } })
-      syncLatency.push(performance.now() - t0)
-      count('sync', { status: answer.status })
-      if (answer.status === 401) { await this.signIn(); return }
-      if (answer.status !== 200) {
-        if (answer.status === 503 && samples503.length < 3) samples503.push(answer.body?.message ?? answer.text)
-        throw new Error(String(answer.status))
-      }
-      const accepted = new Set<string>(answer.body.accepted)
-      for (const r of answer.body.rejected) rejected.push(r)
-      this.queue = this.queue.filter(e => !accepted.has(e.id))
-      this.failures = 0
-      // Now and then the same batch again, as a tablet does when an answer was lost: the server
-      // must accept it once more and store nothing twice.
-      if (Math.random() < 0.1) {
-        const again = await api('POST', '/api/sync', { cookie: this.cookie, body: { deviceId: this.deviceId, events: batch } })
-        count('sync', { status: again.status })
-        if (again.status === 200) {
-          replaysSent += batch.length
-          replaysAccepted += again.body.accepted.length
-          for (const r of again.body.rejected) rejected.push(r)
-        }
-      }
-    }
-    catch (error: any) {
-      if (error?.name === 'TimeoutError') count('sync', { timeout: true })
-      else if (!/^\d+$/.test(error?.message)) count('sync', { network: true })
-      this.failures++
-      this.retryAt = Date.now() + nextDelay(this.failures)
-    }
-    finally {
-      syncInFlight--
-      this.sending = false
-    }
-  }
-}
-
-function percentile(values: number[], p: number) {
-  if (!values.length) return NaN
-  const sorted = [...values].sort((a, b) => a - b)
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!
-}
-const ms = (v: number) => `${v.toFixed(1)} ms`
+const api = (method: string, path: string, opts: { cookie?: string, body?: unknown } = {}) => apiAt(BASE, method, path, opts)
+const signIn = (email: string, password: string) => signInAt(BASE, email, password)
 
 // ---------------------------------------------------------------- the soak
 
@@ -241,24 +85,8 @@ async function main() {
     try { owner = await signIn('owner@demo.jogwise.test', DEMO_PASSWORD) }
     catch (error) { if (i >= 60) throw error; await sleep(500) }
   }
-  const procedures = (await api('GET', '/api/procedures', { cookie: owner.cookie })).body as Procedure[]
-  const chosen = ['daily-start-up', 'emergency-stop-test'].map(slug => procedures.find(p => p.slug === slug)!)
-  const machines = (await api('GET', '/api/machines', { cookie: owner.cookie })).body as { id: number }[]
-  const stamp = Date.now().toString(36)
-  const tablets: Tablet[] = []
-  for (let n = 1; n <= TABLETS; n++) {
-    const email = `soak-${stamp}-${n}@demo.jogwise.test`
-    const made = await api('POST', '/api/users', { cookie: owner.cookie, body: { name: `Soak Operator ${n}`, email, role: 'operator', password: PASSWORD } })
-    if (made.status !== 201) throw new Error(`creating ${email}: ${made.status} ${made.text}`)
-    for (const p of chosen) {
-      const q = await api('PUT', '/api/qualifications', { cookie: owner.cookie, body: { userId: made.body.id, procedureId: p.id, qualified: true } })
-      if (q.status !== 200) throw new Error(`qualifying ${email}: ${q.status} ${q.text}`)
-    }
-    tablets.push(new Tablet(n, email, machines[n % machines.length]!.id, chosen))
-  }
-  // Ten at a time: every try counts against the address until its password is checked (so a
-  // parallel burst of guesses cannot slip past the limit of 20), and all tablets share 127.0.0.1.
-  for (let i = 0; i < tablets.length; i += 10) await Promise.all(tablets.slice(i, i + 10).map(t => t.signIn()))
+  // One operator per tablet, qualified for two starter procedures (soak-kit.ts)
+  const tablets = await makeTablets(BASE, owner.cookie, TABLETS, () => BASE, stats)
   say(`${TABLETS} operators created and signed in, each on its own tablet`)
 
   // Reads: autocannon, one connection per tablet with that tablet's session, at READ_RATE each.
@@ -306,7 +134,7 @@ async function main() {
     while (!loadOver || tablet.queue.length) {
       await tablet.sync()
       await sleep(250)
-      if (phase === 'drain' && Date.now() > drainEnds) break
+      if (stats.phase === 'drain' && Date.now() > drainEnds) break
     }
   })
   say(`load: ${TABLETS} tablets tapping about every ${TAP_MS} ms and reading ${READ_RATE}×/s each, for ${LOAD_S} s`)
@@ -317,14 +145,14 @@ async function main() {
   await sleep(DB_DOWN_AT_S * 1000)
   const pidBefore = server!.pid
   say('fault: stopping MariaDB')
-  phase = 'db-down'
+  stats.phase = 'db-down'
   await run('bash', ['scripts/db.sh', 'stop', DB_DIR_NAME])
   const health = await api('GET', '/api/health').catch(e => ({ status: 0, text: String(e) }))
   say(`while MariaDB is down /api/health answers ${health.status}: ${(health as any).body?.message ?? health.text}`)
   await sleep(DB_DOWN_FOR_S * 1000)
   say('fault: starting MariaDB again')
   await run('bash', ['scripts/db.sh', 'start', DB_DIR_NAME, DB_PORT], { env: { ...process.env, JOGWISE_DB_NAME: process.env.NUXT_DB_NAME } })
-  phase = 'steady'
+  stats.phase = 'steady'
   let recovered = NaN
   const back = performance.now()
   for (let i = 0; i < 100; i++) {
@@ -338,22 +166,22 @@ async function main() {
   // Fault 2: the app process killed with SIGKILL while sync batches are in flight.
   await sleep(Math.max(0, APP_KILL_AT_S * 1000 - (Date.now() - loadStart)))
   await stopReads()
-  for (let i = 0; i < 200 && syncInFlight < 3; i++) await sleep(10)
-  const inFlight = syncInFlight
+  for (let i = 0; i < 200 && stats.syncInFlight < 3; i++) await sleep(10)
+  const inFlight = stats.syncInFlight
   say(`fault: SIGKILL to the app server (pid ${server!.pid}) with ${inFlight} sync batches in flight`)
-  phase = 'app-down'
+  stats.phase = 'app-down'
   const killedAt = performance.now()
   process.kill(server!.pid!, 'SIGKILL')
   await sleep(1000)
   await startServer()
-  phase = 'steady'
+  stats.phase = 'steady'
   faults.push(`app killed (SIGKILL) with ${inFlight} sync batches in flight, serving again after ${ms(performance.now() - killedAt)} (pid ${server!.pid})`)
   say(faults.at(-1)!)
   startReads(Math.max(1, (loadEnds - Date.now()) / 1000))
 
   await sleep(Math.max(0, loadEnds - Date.now()))
   loadOver = true
-  phase = 'drain'
+  stats.phase = 'drain'
   drainEnds = Date.now() + DRAIN_S * 1000
   await stopReads()
   await Promise.all(tabletLoops)
@@ -383,7 +211,6 @@ async function main() {
   const runsById = new Map(runRows.map(r => [r.id, r]))
   const mismatches: string[] = []
   const allRuns = tablets.flatMap(t => [...t.runs.entries()].map(([id, r]) => ({ id, tablet: t, ...r })))
-  const canon = (events: unknown[]) => JSON.parse(JSON.stringify(events, (k, v) => (k === 'seq' || k === 'flag') ? undefined : v)) as RunEvent[]
   for (let i = 0; i < allRuns.length; i += 10) {
     await Promise.all(allRuns.slice(i, i + 10).map(async (r) => {
       const mine = foldRun(r.steps, canon(r.events))
@@ -416,7 +243,7 @@ async function main() {
     `reads (autocannon): ${sum('read', 'requests')} (${(sum('read', 'requests') / loadSeconds).toFixed(1)}/s), GET ${readPaths.join(' and ')}; paused while the app restarts`,
     `read latency:       p50 ${ms(percentile(readLatency, 50))}, p95 ${ms(percentile(readLatency, 95))}, p99 ${ms(percentile(readLatency, 99))} (autocannon per window p50 ${acP('p50')}, p97.5 ${acP('p97_5')}, p99 ${acP('p99')} ms)`,
     `all requests:       ${sum('sync', 'requests') + sum('read', 'requests')} (${((sum('sync', 'requests') + sum('read', 'requests')) / loadSeconds).toFixed(1)}/s); errors outside the faults: ${errorsOutside()}`,
-    `replayed batches:   ${replaysSent} events sent a second time and answered, ${replaysAccepted} of them accepted again as replays`,
+    `replayed batches:   ${stats.replaysSent} events sent a second time and answered, ${stats.replaysAccepted} of them accepted again as replays`,
     ...Object.entries(byPhase).flatMap(([name, t]) => [`${`${name}:`.padEnd(20)}sync ${statusLine(t.sync)}`, `${''.padEnd(20)}read ${statusLine(t.read)}`]),
     `503 while down:     ${samples503[0] ?? '(none seen)'}`,
     ...faults.map(f => `fault:              ${f}`),

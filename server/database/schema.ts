@@ -368,3 +368,31 @@ export const signoffNonces = mysqlTable('signoff_nonces', {
   signerId: int('signer_id').notNull().references(() => users.id),
   createdAt: createdAt(),
 })
+
+// --- Several app servers on one database (Galera cluster) ---
+
+// Work that one app server at a time may do (the mail sender, the daily digest): whoever holds
+// the row's unexpired lease does it. `doneFor` remembers the last period a once-only job ran for
+// (the digest's day), so it runs once for the whole cluster, not once per server.
+export const workerLeases = mysqlTable('worker_leases', {
+  name: varchar('name', { length: 64 }).primaryKey(),
+  holder: varchar('holder', { length: 96 }).notNull(),
+  expiresAt: timestamp('expires_at', { fsp: 3 }).notNull(),
+  doneFor: varchar('done_for', { length: 32 }),
+})
+
+// Sessions signed out before their cookie expires; every app server checks them (authz.ts).
+export const revokedSessions = mysqlTable('revoked_sessions', {
+  sessionId: varchar('session_id', { length: 64 }).primaryKey(),
+  until: timestamp('until', { fsp: 3 }).notNull(),
+}, t => [index('revoked_sessions_until_idx').on(t.until)])
+
+// One row per run, bumped by a trigger on every stored run event (see the migration), so two
+// merges of the same run write the same row: on one server the second waits for the first and
+// then folds all of its events; on a Galera cluster the second fails certification and is
+// retried (withWriteRetry). Without it two concurrent merges could each fold only their own
+// half and leave a stale run summary.
+export const runMerges = mysqlTable('run_merges', {
+  runId: varchar('run_id', { length: 36 }).primaryKey(),
+  merges: int('merges').notNull().default(0),
+})

@@ -1,8 +1,12 @@
 // The outbox worker: every few seconds (NUXT_MAIL_WORKER_INTERVAL_MS) it sends the due mails
 // and, once a day after the digest hour, queues each shop's daily digest. Every app process
-// runs one; the claim in sendDueMail keeps two of them from sending the same row.
+// runs one, but only the holder of the `mail-sender` lease row sends (worker-lease.ts), so with
+// several app servers one sends at a time; the claim in sendDueMail still keeps two of them
+// from sending the same row should a lease run out mid-send.
 export default defineNitroPlugin((nitroApp) => {
   const settings = mailSettings()
+  // Renewed every tick; another server takes over within this long after the holder dies.
+  const leaseMs = Math.max(3000, settings.workerIntervalMs * 3)
   let busy = false
   let stopped = false
 
@@ -10,7 +14,7 @@ export default defineNitroPlugin((nitroApp) => {
     if (busy || stopped) return
     busy = true
     try {
-      await sendDueMail()
+      if (await claimLease(MAIL_SENDER_LEASE, leaseMs)) await sendDueMail()
       await enqueueDigestsWhenDue()
     }
     catch (error) {
@@ -28,5 +32,6 @@ export default defineNitroPlugin((nitroApp) => {
     stopped = true
     clearInterval(timer)
     closeMailTransport()
+    return releaseLease(MAIL_SENDER_LEASE).catch(() => {})
   })
 })

@@ -13,9 +13,12 @@ let db: ReturnType<typeof drizzle<typeof schema>> | undefined
 export function useDB() {
   if (!db) {
     const { db: cfg } = useRuntimeConfig()
+    const nodes = parseDbHosts(String(cfg.host ?? ''), Number(cfg.port) || 3306)
     pool = mysql.createPool({
-      host: cfg.host,
-      port: Number(cfg.port),
+      host: nodes[0]!.host,
+      port: nodes[0]!.port,
+      // Several nodes (a Galera cluster): each new connection goes to the node in use (db-nodes)
+      ...(nodes.length > 1 && { stream: nodeStream(nodes) }),
       user: cfg.user,
       password: cfg.password,
       database: cfg.name,
@@ -43,6 +46,11 @@ const UNREACHABLE_CODES = new Set([
   'ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENOTFOUND',
   'PROTOCOL_CONNECTION_LOST', 'PROTOCOL_SEQUENCE_TIMEOUT', 'ER_CON_COUNT_ERROR',
   'ER_SERVER_SHUTDOWN', 'ER_CONNECTION_KILLED', 'ER_QUERY_INTERRUPTED',
+  // A Galera node that is not (yet) part of the primary component or still catching up answers
+  // every query with 1047 "WSREP has not yet prepared node for application use".
+  'ER_UNKNOWN_COM_ERROR',
+  // A write conflict still there after withWriteRetry's tries: the cluster is busy; try later.
+  'ER_LOCK_DEADLOCK',
 ])
 
 /**

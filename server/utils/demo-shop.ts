@@ -55,7 +55,7 @@ export async function seedDemoShopIfEmpty(password: string) {
   if (!password) throw new Error('NUXT_DEMO_PASSWORD is empty; the demo shop needs a password.')
 
   const passwordHash = await hashPassword(password)
-  await db.transaction(async (tx) => {
+  await withWriteRetry(() => db.transaction(async (tx) => {
     const [{ id: shopId }] = await tx.insert(tables.shops).values({ name: DEMO_SHOP_NAME, units: 'mm' }).$returningId() as [{ id: number }]
     let ownerId: number | null = null
     for (const p of DEMO_PEOPLE) {
@@ -86,6 +86,6 @@ export async function seedDemoShopIfEmpty(password: string) {
         everyDays: i.everyDays, everySpindleHours: i.everySpindleHours,
       })
     }
-  })
+  }))
   return true
 }

@@ -103,21 +103,35 @@ export async function enqueueShopDigest(shopId: number, now = new Date()): Promi
 }
 
 let doneForDay = ''
+const DIGEST_LEASE = 'daily-digest'
+// Long enough for every shop's digest to be queued by one server.
+const DIGEST_LEASE_MS = 10 * 60_000
 
-/** Called by the outbox worker: after the digest hour, each shop's digest once per day. */
+/**
+ * Called by the outbox worker: after the digest hour, each shop's digest once per day, by one
+ * app server of the cluster (the holder of the `daily-digest` lease row, which also records the
+ * day done). The dedupe keys still make a second enqueue a no-op.
+ */
 export async function enqueueDigestsWhenDue(now = new Date()) {
   const day = localDay(now)
   if (doneForDay === day || now.getHours() < mailSettings().digestHour) return
-  // Every shop
-  const shops = await useDB().select({ id: tables.shops.id }).from(tables.shops)
-  for (const shop of shops) {
-    // One shop's digest that cannot be queued is an error in the log, never a shorter mail,
-    // and does not keep the other shops from theirs.
-    try { await enqueueShopDigest(shop.id, now) }
-    catch (error) {
-      if (transientDatabaseError(error)) throw error
-      console.error(`[jogwise] daily digest of shop ${shop.id} not queued:`, error instanceof Error ? error.message : error)
+  if (await leaseDoneFor(DIGEST_LEASE) === day) { doneForDay = day; return }
+  if (!await claimLease(DIGEST_LEASE, DIGEST_LEASE_MS, now)) return
+  // Another server may have finished the day between the look and the claim.
+  if (await leaseDoneFor(DIGEST_LEASE) !== day) {
+    // Every shop
+    const shops = await useDB().select({ id: tables.shops.id }).from(tables.shops)
+    for (const shop of shops) {
+      // One shop's digest that cannot be queued is an error in the log, never a shorter mail,
+      // and does not keep the other shops from theirs.
+      try { await enqueueShopDigest(shop.id, now) }
+      catch (error) {
+        if (transientDatabaseError(error)) throw error
+        console.error(`[jogwise] daily digest of shop ${shop.id} not queued:`, error instanceof Error ? error.message : error)
+      }
     }
+    await markLeaseDone(DIGEST_LEASE, day)
   }
   doneForDay = day
+  await releaseLease(DIGEST_LEASE)
 }

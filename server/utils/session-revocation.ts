@@ -1,26 +1,24 @@
 // A session lives in a sealed cookie, so without a server-side record a copy of the cookie
 // taken before sign-out would keep working until it expires. A sign-out writes the session's
-// id here until that expiry, and every signed-in request checks it (authz.ts). Nitro's `data`
-// storage is a small key-value folder on the server's disk (.data/kv), so it survives a restart.
-const PREFIX = 'signed-out:'
-
-function storage() {
-  return useStorage('data')
-}
+// id into the revoked_sessions table until that expiry, and every signed-in request checks it
+// (authz.ts). A table rather than one server's disk, so every app server of a cluster sees it.
 
 export async function revokeSession(id: string) {
   const maxAgeSeconds = Number(useRuntimeConfig().session?.maxAge) || 60 * 60 * 12
   const now = Date.now()
-  await storage().setItem(`${PREFIX}${id}`, now + maxAgeSeconds * 1000)
+  const until = new Date(now + maxAgeSeconds * 1000)
+  const t = tables.revokedSessions
+  const db = useDB()
+  // Signed out until the cookie's own expiry (a second sign-out only moves that on)
+  await db.insert(t).values({ sessionId: id.slice(0, 64), until }).onDuplicateKeyUpdate({ set: { until } })
   // Past their expiry the cookies are refused anyway; drop those records.
-  for (const key of await storage().getKeys(PREFIX)) {
-    const until = Number(await storage().getItem(key))
-    if (!until || until < now) await storage().removeItem(key)
-  }
+  await db.delete(t).where(lt(t.until, new Date(now)))
 }
 
 export async function isSessionRevoked(id: string | undefined) {
   if (!id) return false
-  const until = Number(await storage().getItem(`${PREFIX}${id}`))
-  return !!until && until > Date.now()
+  const t = tables.revokedSessions
+  // Is this session signed out, and not yet past its expiry?
+  const [row] = await useDB().select({ until: t.until }).from(t).where(eq(t.sessionId, id.slice(0, 64))).limit(1)
+  return !!row && row.until.getTime() > Date.now()
 }

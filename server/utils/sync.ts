@@ -182,18 +182,24 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   // its run unstorable, is rejected on its own with a reason and the rest go on.
   const stored = new Set<string>()
   if (toInsert.length) {
-    await db.transaction(async (tx) => {
+    const outcome = await withWriteRetry(() => db.transaction(async (tx) => {
+      // Outcomes are kept per try: a write conflict retried (withWriteRetry) starts them afresh.
+      const ok = new Set<string>()
+      const refused: SyncRejection[] = []
       // Each seal's nonce, once. Two batches racing with one seal cannot both count it for
       // different events: the seal also names its event, whose id is unique.
       if (nonces.length) await tx.insert(tables.signoffNonces).values(nonces).onDuplicateKeyUpdate({ set: { nonce: sql`nonce` } })
       for (const runId of new Set(toInsert.map(e => e.runId))) {
-        const outcome = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId))
-        for (const id of outcome.stored) stored.add(id)
-        for (const r of outcome.rejected) reject(r.id, r.reason)
+        const one = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId))
+        for (const id of one.stored) ok.add(id)
+        refused.push(...one.rejected)
       }
       // The override's alert also goes out for stored sign-offs whose signature failed its check
-      await enqueueSignoffFailedAlerts(tx, user, failedSignoffs.filter(f => stored.has(f.event.id)))
-    })
+      await enqueueSignoffFailedAlerts(tx, user, failedSignoffs.filter(f => ok.has(f.event.id)))
+      return { ok, refused }
+    }))
+    for (const id of outcome.ok) stored.add(id)
+    for (const r of outcome.refused) reject(r.id, r.reason)
   }
   const storedOrKnown = accepted.filter(id => stored.has(id) || !toInsert.some(e => e.id === id))
   accepted.length = 0

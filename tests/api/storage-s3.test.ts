@@ -188,6 +188,27 @@ describe('the app with NUXT_STORAGE_DRIVER=s3', () => {
     expect(existsSync(join(folder, 'must-stay-empty'))).toBe(false)
   })
 
+  it('serves a photo put through one app server from another (cluster mode: both on the same bucket)', async () => {
+    const second = await startS3App({
+      NUXT_STORAGE_DRIVER: 's3', NUXT_S3_ENDPOINT: endpoint, NUXT_S3_REGION: 'us-east-1', NUXT_S3_BUCKET: BUCKET,
+      NUXT_S3_ACCESS_KEY_ID: KEYS.accessKeyId, NUXT_S3_SECRET_ACCESS_KEY: KEYS.secretAccessKey, NUXT_S3_FORCE_PATH_STYLE: 'true',
+    })
+    const bytes = makePng(40, 30, 7)
+    const id = randomUUID()
+    // Put through the first server; the session cookie made there works on the second too.
+    expect((await putPhoto(app.url, id, runId, bytes, cookie)).status).toBe(201)
+    const back = await fetch(`${second.url}/api/uploads/${id}`, { headers: { cookie } })
+    expect(back.status).toBe(200)
+    expect(sha256(Buffer.from(await back.arrayBuffer()))).toBe(sha256(bytes))
+    // The same id sent again through the second server (a tablet's retry) stores nothing twice.
+    const again = await putPhoto(second.url, id, runId, bytes, cookie)
+    expect(again.status).toBeLessThan(300)
+    const [[rows]] = await db().query<any[]>('select count(*) as n from uploads where id = ?', [id])
+    expect(Number(rows.n)).toBe(1)
+    const listed = await raw.send(new ListObjectsV2Command({ Bucket: BUCKET, Prefix: `${(await db().query<any[]>('select shop_id from uploads where id = ?', [id]))[0][0].shop_id}/${id}` }))
+    expect(listed.KeyCount).toBe(1)
+  })
+
   it('never shows another shop\'s photo', async () => {
     const other = await otherShop()
     const otherCookie = await signIn(app.url, (await db().query<any[]>('select email from users where shop_id = ? and role = ?', [other.shopId, 'owner']))[0][0].email, 'other-shop-password')

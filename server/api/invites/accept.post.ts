@@ -6,7 +6,7 @@ import { InviteAcceptSchema } from '#shared/schemas/invite'
 export default defineEventHandler(async (event) => {
   const body = await readValid(event, InviteAcceptSchema)
   const passwordHash = await hashPassword(body.password)
-  const user = await useDB().transaction(async (tx) => {
+  const user = await withWriteRetry(() => useDB().transaction(async (tx) => {
     // The invite with this token's hash, locked
     const [invite] = await tx.select().from(tables.invites)
       .where(eq(tables.invites.tokenHash, hashInviteToken(body.token))).limit(1).for('update')
@@ -24,7 +24,7 @@ export default defineEventHandler(async (event) => {
       detail: { userId: id, role: inv.role, email: inv.email },
     })
     return { id, shopId: inv.shopId, name: body.name, email: inv.email, role: inv.role }
-  })
+  }))
   await setUserSession(event, { user, loggedInAt: Date.now() })
   setResponseStatus(event, 201)
   return { user }

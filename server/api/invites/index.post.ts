@@ -25,7 +25,7 @@ export default defineEventHandler(async (event) => {
   const expiresAt = new Date(Date.now() + mailSettings().inviteTtlHours * 3600_000)
   // The shop's name, for the mail
   const [shop] = await db.select({ name: tables.shops.name }).from(tables.shops).where(eq(tables.shops.id, owner.shopId)).limit(1)
-  const id = await db.transaction(async (tx) => {
+  const id = await withWriteRetry(() => db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(tables.invites).values({
       shopId: owner.shopId, email: body.email, role: body.role, tokenHash: hash, invitedBy: owner.id, expiresAt,
     }).$returningId() as [{ id: number }]
@@ -55,7 +55,7 @@ export default defineEventHandler(async (event) => {
     })
     await recordAudit(tx, owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
     return id
-  })
+  }))
   setResponseStatus(event, 201)
   return { id, email: body.email, role: body.role, status: 'pending' as const, expiresAt: expiresAt.toISOString() }
 })

@@ -11,12 +11,12 @@ export default defineEventHandler(async (event) => {
     .where(and(eq(tables.procedures.shopId, user.shopId), sql`${tables.procedures.slug} like ${`${base}%`}`))).map(r => r.slug))
   let slug = base
   for (let n = 2; taken.has(slug); n++) slug = `${base}-${n}`
-  const result = await db.transaction(async (tx) => {
+  const result = await withWriteRetry(() => db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(tables.procedures).values({ shopId: user.shopId, slug, category: procedure.category }).$returningId() as [{ id: number }]
     const published = await publishVersion(tx, { shopId: user.shopId, procedureId: id, procedure, createdBy: user.id, changeNote: changeNote ?? 'First version' })
     await recordAudit(tx, user, 'procedure.published', 'procedure', id, { version: published.version })
     return { id, ...published }
-  })
+  }))
   setResponseStatus(event, 201)
   return result
 })
