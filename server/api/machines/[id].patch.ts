@@ -14,10 +14,10 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'spoilboardMinMm: the minimum thickness must be less than the nominal thickness.', data: { issues: [{ path: 'spoilboardMinMm', message: 'The minimum thickness must be less than the nominal thickness.' }] } })
   }
   // Update the machine, only within the owner's shop
-  await useDB().transaction(async (tx) => {
+  await withWriteRetry(() => useDB().transaction(async (tx) => {
     await tx.update(tables.machines).set(body)
       .where(and(eq(tables.machines.id, id), eq(tables.machines.shopId, owner.shopId)))
     await recordAudit(tx, owner, 'machine.changed', 'machine', id, { fields: Object.keys(body) })
-  })
+  }))
   return findShopMachine(owner, id)
 })

@@ -5,10 +5,10 @@ export default defineEventHandler(async (event) => {
   const owner = await requireRole(event, 'owner')
   const current = await findShopInterval(owner, id)
   // Remove the interval, only within the owner's shop
-  await useDB().transaction(async (tx) => {
+  await withWriteRetry(() => useDB().transaction(async (tx) => {
     await tx.delete(tables.maintenanceIntervals)
       .where(and(eq(tables.maintenanceIntervals.id, id), eq(tables.maintenanceIntervals.shopId, owner.shopId)))
     await recordAudit(tx, owner, 'interval.deleted', 'maintenance_interval', id, { procedureId: current.procedureId, machineId: current.machineId })
-  })
+  }))
   return { ok: true }
 })

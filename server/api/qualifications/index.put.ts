@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
   if (body.qualified && person.role === 'trainee') {
     throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'userId: a trainee always runs guided; change their role to operator first.', data: { issues: [{ path: 'userId', message: 'A trainee always runs guided; change their role to operator first.' }] } })
   }
-  await db.transaction(async (tx) => {
+  await withWriteRetry(() => db.transaction(async (tx) => {
     if (body.qualified) {
       // Granting twice changes nothing (the pair is unique)
       await tx.insert(tables.qualifications).values({ shopId: owner.shopId, userId: body.userId, procedureId: body.procedureId, grantedBy: owner.id })
@@ -30,6 +30,6 @@ export default defineEventHandler(async (event) => {
       await tx.delete(tables.qualifications).where(and(eq(tables.qualifications.shopId, owner.shopId), eq(tables.qualifications.userId, body.userId), eq(tables.qualifications.procedureId, body.procedureId)))
     }
     await recordAudit(tx, owner, body.qualified ? 'qualification.granted' : 'qualification.removed', 'user', body.userId, { procedureId: body.procedureId })
-  })
+  }))
   return body
 })

@@ -19,7 +19,7 @@ export default defineEventHandler(async (event) => {
   if (body.active !== undefined) changes.active = body.active
   if (body.pin !== undefined) changes.pinHash = body.pin ? await hashPassword(body.pin) : null
   // The change and its audit line, together
-  await db.transaction(async (tx) => {
+  await withWriteRetry(() => db.transaction(async (tx) => {
     await tx.update(tables.users).set(changes).where(and(eq(tables.users.id, id), eq(tables.users.shopId, owner.shopId)))
     await recordAudit(tx, owner, 'user.changed', 'user', id, {
       ...(body.role !== undefined && { role: { from: target.role, to: body.role } }),
@@ -27,6 +27,6 @@ export default defineEventHandler(async (event) => {
       ...(body.name !== undefined && { name: body.name }),
       ...(body.pin !== undefined && { pin: body.pin ? 'set' : 'cleared' }),
     })
-  })
+  }))
   return { id, name: changes.name ?? target.name, email: target.email, role: changes.role ?? target.role, active: changes.active ?? target.active }
 })

@@ -15,13 +15,13 @@ export default defineEventHandler(async (event) => {
   const passwordHash = await hashPassword(body.password)
   const pinHash = body.pin ? await hashPassword(body.pin) : null
   // The new person and the audit line, together
-  const id = await db.transaction(async (tx) => {
+  const id = await withWriteRetry(() => db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(tables.users).values({
       shopId: owner.shopId, name: body.name, email: body.email, role: body.role, passwordHash, pinHash,
     }).$returningId() as [{ id: number }]
     await recordAudit(tx, owner, 'user.created', 'user', id, { role: body.role })
     return id
-  })
+  }))
   setResponseStatus(event, 201)
   return { id, name: body.name, email: body.email, role: body.role, active: true }
 })

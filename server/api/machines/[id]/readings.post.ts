@@ -28,13 +28,13 @@ export default defineEventHandler(async (event) => {
     if (run.machineId !== id) throw invalidField('runId', 'That run was on another machine.')
   }
   // A new reading on this machine, taken by the signed-in person
-  const readingId = await useDB().transaction(async (tx) => {
+  const readingId = await withWriteRetry(() => useDB().transaction(async (tx) => {
     const [{ id: readingId }] = await tx.insert(tables.spoilboardReadings).values({
       ...reading, shopId: user.shopId, machineId: id, takenBy: user.id,
     }).$returningId() as [{ id: number }]
     await recordAudit(tx, user, 'board.reading', 'machine', id, { readingId, kind: reading.kind, rows: reading.grid.length, cols: reading.grid[0]!.length })
     return readingId
-  })
+  }))
   setResponseStatus(event, 201)
   return (await loadBoardHistory(user, machine)).find(r => r.id === readingId)!
 })

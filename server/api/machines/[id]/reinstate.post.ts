@@ -6,10 +6,10 @@ export default defineEventHandler(async (event) => {
   const owner = await requireRole(event, 'owner')
   await findShopMachine(owner, id)
   // Clear the retirement, only within the owner's shop
-  await useDB().transaction(async (tx) => {
+  await withWriteRetry(() => useDB().transaction(async (tx) => {
     await tx.update(tables.machines).set({ retiredAt: null })
       .where(and(eq(tables.machines.id, id), eq(tables.machines.shopId, owner.shopId)))
     await recordAudit(tx, owner, 'machine.reinstated', 'machine', id)
-  })
+  }))
   return findShopMachine(owner, id)
 })
