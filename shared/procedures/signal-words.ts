@@ -1,6 +1,6 @@
 // Signal words of hold steps. The four words, their meanings and colours follow ANSI Z535.4
-// §4.14 (product safety signs) and Z535.6 (instructions), REFERENCES 5.12; ISO 3864-2 uses the
-// first three only, REFERENCES 5.13. The meanings below are in our own words.
+// §4.14 (product safety signs, 2007 edition) and Z535.6 (instructions); ISO 3864-2 uses the
+// first three only (that it has no NOTICE is from memory). The meanings below are in our own words.
 
 export const SIGNAL_WORDS = ['DANGER', 'WARNING', 'CAUTION', 'NOTICE'] as const
 export type SignalWord = typeof SIGNAL_WORDS[number]

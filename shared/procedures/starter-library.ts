@@ -1,7 +1,7 @@
 import { SUPPLEMENT_NOTICE, type ProcedureCategory, type ProcedureStepInput } from './schema'
 
 // The procedures every new shop starts with, written for Jogwise in our own words. Each hazard
-// carries the usual caution with the signal word ANSI Z535.4 §4.14 gives it (REFERENCES 5.12):
+// carries the usual caution with the signal word ANSI Z535.4-2007 §4.14 gives it:
 // WARNING where a person could be killed or seriously hurt, CAUTION for minor or moderate
 // injury, NOTICE where only the board, tool or machine is at risk. Shops edit these in the
 // Library; numbers given here are common practice and are marked as such in the text.

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { as, call, db, otherShop } from './client'
 
 // POST /api/plans/surfacing and GET /api/plans/[id] against the real server and MariaDB.
-// G-code word meanings: NIST RS274/NGC interpreter specification (REFERENCES: G20 inch units,
+// G-code word meanings: NIST RS274/NGC interpreter, NISTIR 6556 §3.5.7 and §3.6 (G20 inch units,
 // G21 millimetre units, M5 spindle stop, M30 program end).
 
 const MM_PLAN = {

@@ -5,7 +5,7 @@ import { as, call, db, otherShop } from './client'
 // Spoilboard readings against the real server and MariaDB: stored in mm with who and when,
 // analysed with the shared plane fit, kept within one shop, and every bad grid named by path.
 
-// REFERENCES §2.D test vector F1 (COMPUTED there with an SVD least-squares solver and a linear program):
+// Test vector F1, computed independently (SVD least squares; a linear program for the minimum zone):
 // the exact saddle z = 0.10 + 0.001x − 0.0005y + 0.05(x−100)(y−100)/10⁴ on x, y ∈ {0, 100, 200}
 // mm, rows front to back. Expected: LSQ peak-to-valley 0.100 mm, clean-up z_max − z_min 0.300 mm.
 const F1 = [
@@ -47,7 +47,7 @@ afterAll(async () => { await db().end() })
 
 describe('POST then GET /api/machines/:id/readings', () => {
   let savedId: number
-  it('stores a 3 × 3 grid in mm with who and when, and reads it back with the F1 analysis (REFERENCES §2.D)', async () => {
+  it('stores a 3 × 3 grid in mm with who and when, and reads it back with the F1 analysis (hand-calculated saddle)', async () => {
     const me = (await call('GET', '/api/me', { cookie: await as('operator') })).body.user
     const before = Date.now()
     const saved = await post('operator', reading({ note: 'Morning check' }))
@@ -60,7 +60,7 @@ describe('POST then GET /api/machines/:id/readings', () => {
     expect(list.status).toBe(200)
     const back = list.body.find((r: any) => r.id === savedId)
     expect(back.grid).toEqual(F1)
-    // F1: LSQ P-V 0.100 and clean-up 0.300 mm (REFERENCES §2.D); the vertical-residual P-V is
+    // F1: LSQ P-V 0.100 and clean-up 0.300 mm (hand calculation); the vertical-residual P-V is
     // exact here, so a tight tolerance.
     expect(back.summary.flatnessAboutPlaneMm).toBeCloseTo(0.1, 9)
     // Minimum zone (ISO 1101): the saddle's corner residuals keep r(+,+) − r(+,−) − r(−,+) + r(−,−)
@@ -83,7 +83,7 @@ describe('POST then GET /api/machines/:id/readings', () => {
     expect(typeof row.grid === 'string' ? JSON.parse(row.grid) : row.grid).toEqual(F1)
   })
 
-  it('converts inches to mm exactly on the way in (1 in = 25.4 mm, NBS Circular 572 addendum, REFERENCES 4.1)', async () => {
+  it('converts inches to mm exactly on the way in (1 in = 25.4 mm, NBS Circular 572 addendum, 1960)', async () => {
     const saved = await post('trainer', { kind: 'thickness', units: 'in', grid: [[0.75, 0.7], [0.72, 0.74]], spacing: { x: 4, y: 6 }, facedDepth: 0.01, takenAt: new Date(Date.now() + 60_000).toISOString() })
     expect(saved.status, saved.text).toBe(201)
     const [[row]] = await db().query<any[]>('select grid, spacing_x_mm, spacing_y_mm, faced_depth_mm from spoilboard_readings where id = ?', [saved.body.id])

@@ -2,7 +2,7 @@ import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
 import { signIn } from './helpers'
 
-// REFERENCES §2.D test vector F1 (COMPUTED there with an SVD least-squares solver and a linear program):
+// Test vector F1, computed independently (SVD least squares; a linear program for the minimum zone):
 // a saddle on a 3 × 3 grid at 100 mm spacing, rows front to back. LSQ peak-to-valley 0.100 mm,
 // clean-up depth z_max − z_min 0.300 mm, residuals ±0.05 mm at the corners.
 const F1 = [
@@ -34,7 +34,7 @@ test.describe('Board and Feeds at 1024×768', () => {
       for (const [c, value] of row.entries()) {
         const input = page.getByLabel(`Row ${r + 1}, column ${c + 1}`, { exact: true })
         await input.fill(value)
-        // Gloved hands: every reading input is at least 64 CSS px tall (issue 3, REFERENCES §2.G).
+        // Gloved hands: every reading input is at least 64 CSS px tall (issue 3; more than the 44 CSS px of WCAG 2.2 SC 2.5.5).
         expect((await input.boundingBox())!.height).toBeGreaterThanOrEqual(64)
       }
     }
@@ -62,7 +62,7 @@ test.describe('Board and Feeds at 1024×768', () => {
     await page.goto('/feeds')
     await expect(page.getByRole('heading', { name: 'Feeds', level: 1 })).toBeVisible()
     await page.getByText('Metric (mm)').click()
-    // Vc = 100 m/min on D = 10 mm → 3183.10 rpm (REFERENCES 1.4, CONFIRMED-2nd).
+    // Vc = 100 m/min on D = 10 mm → 3183.10 rpm (published by online spindle-speed calculators).
     await page.getByRole('textbox', { name: /Cutter diameter/ }).fill('10')
     await page.getByRole('textbox', { name: /Surface speed/ }).fill('100')
     await expect(page.locator('[data-result="rpm"]')).toContainText('3183 rpm')
@@ -71,7 +71,7 @@ test.describe('Board and Feeds at 1024×768', () => {
     await page.getByText('Inch', { exact: true }).click()
     await page.getByRole('textbox', { name: /Cutter diameter/ }).fill('4')
     await page.getByRole('textbox', { name: /Surface speed/ }).fill('575')
-    // 575 SFM on a 4 in diameter → 549 rpm (handbook example, REFERENCES 1.3; wording from memory).
+    // 575 SFM on a 4 in diameter → 549 rpm (Machinery's Handbook Example 1; wording from memory).
     await expect(page.locator('[data-result="rpm"]')).toContainText('549 rpm')
     await page.getByRole('textbox', { name: /Cutter diameter/ }).fill('0')
     await expect(page.getByText('Cutter diameter must be greater than zero.')).toBeVisible()

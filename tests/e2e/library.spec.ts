@@ -45,7 +45,7 @@ test.describe('Library at 1024×768', () => {
     await openResurfacing(page)
     await expect(page.getByRole('link', { name: 'Edit' })).toHaveCount(0)
     await expect(page.getByRole('button', { name: 'Retire' })).toHaveCount(0)
-    // Holds carry their Z535 signal word (REFERENCES 5.12); the starter library uses WARNING.
+    // Holds carry their Z535 signal word (ANSI Z535.4-2007 §4.14); the starter library uses WARNING.
     await expect(page.locator('[data-signal-word="WARNING"]').first()).toBeVisible()
     await expect(page.getByRole('heading', { name: 'Version history' })).toBeVisible()
     await page.screenshot({ path: '/tmp/library-read.png', fullPage: false })

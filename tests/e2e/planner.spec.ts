@@ -6,7 +6,7 @@ import { runReady, signIn } from './helpers'
 
 // The Planner at 1024×768 as an operator uses it beside the demo shop's Bench Router
 // (620 × 620 × 90 mm travel, inch units). Word meanings from the NIST RS274/NGC interpreter
-// specification (REFERENCES): G20 inch units, M3 spindle on, M5 spindle off, M30 program end.
+// specification, NISTIR 6556 §3.5.7 and §3.6: G20 inch units, M3 spindle on, M5 spindle off, M30 program end.
 
 /** Signs in as the trainer (solo runs) and records a run that has reached its planner step. */
 async function runAtPlannerStep(page: Page) {

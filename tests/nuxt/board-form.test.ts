@@ -12,7 +12,7 @@ describe('BoardReadingForm', () => {
     const labels = w.findAll('input[aria-label^="Row"]').map(i => i.attributes('aria-label'))
     expect(labels).toEqual(['Row 1, column 1', 'Row 1, column 2', 'Row 1, column 3', 'Row 2, column 1', 'Row 2, column 2', 'Row 2, column 3', 'Row 3, column 1', 'Row 3, column 2', 'Row 3, column 3'])
     expect(input(w, 1, 1).classes()).toContain('field-input') // .field-input is min-h-touch (64 px)
-    // REFERENCES §2.D F1, typed row by row; a comma is taken as the decimal mark.
+    // The hand-calculated F1 saddle, typed row by row; a comma is taken as the decimal mark.
     const f1 = [['0.15', '0.20', '0.25'], ['0.05', '0.15', '0.25'], ['-0.05', '0,10', '0.25']]
     for (const [r, row] of f1.entries()) for (const [c, v] of row.entries()) await input(w, r + 1, c + 1).setValue(v)
     await w.find('#reading-spacing-x').setValue('100')

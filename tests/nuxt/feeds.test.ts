@@ -3,8 +3,8 @@ import { describe, expect, it } from 'vitest'
 import type { VueWrapper } from '@vue/test-utils'
 import FeedsCalculator from '~/components/feeds/FeedsCalculator.vue'
 
-// Check values are the test vectors of REFERENCES §2.A, from the handbook formulas
-// n = 1000·Vc/(π·D), N = 12·V/(π·D), vf = fz·z·n, Q = ae·ap·vf (REFERENCES 1.1, 1.2, 1.5, 1.7).
+// Check values are hand calculations from the formulas of Machinery's Handbook (cutting speed,
+// feeds for milling, MRR): n = 1000·Vc/(π·D), N = 12·V/(π·D), vf = fz·z·n, Q = ae·ap·vf.
 // The screen shows whole rpm and four significant digits for the rest.
 const result = (w: VueWrapper, key: string) => w.find(`[data-result="${key}"]`).text()
 async function fill(w: VueWrapper, fields: Record<string, string>) {
@@ -14,9 +14,9 @@ const choose = (w: VueWrapper, name: string, value: string) => w.find(`input[nam
 
 describe('Feeds screen', () => {
   it.each([
-    // Vc = 100 m/min, D = 10 mm → 3183.10 rpm (calculator pages, REFERENCES 1.4, CONFIRMED-2nd)
+    // Vc = 100 m/min, D = 10 mm → 3183.10 rpm (published by online spindle-speed calculators)
     ['10', '100', '3183 rpm'],
-    // Vc = 120 m/min, D = 20 mm → 1909.86 rpm (REFERENCES 1.4, CONFIRMED-2nd)
+    // Vc = 120 m/min, D = 20 mm → 1909.86 rpm (published by online spindle-speed calculators)
     ['20', '120', '1910 rpm'],
   ])('metric: D %s mm at %s m/min turns at %s', async (diameter, speed, rpm) => {
     const w = await mountSuspended(FeedsCalculator, { props: { initialUnits: 'mm' } })
@@ -24,19 +24,19 @@ describe('Feeds screen', () => {
     expect(result(w, 'rpm')).toContain(rpm)
   })
 
-  it('inch: 575 SFM on a 4 in diameter is 549 rpm (handbook example, REFERENCES 1.3; example wording from memory)', async () => {
+  it('inch: 575 SFM on a 4 in diameter is 549 rpm (Machinery\'s Handbook Example 1; example wording from memory)', async () => {
     const w = await mountSuspended(FeedsCalculator, { props: { initialUnits: 'in' } })
     await fill(w, { 'feeds-diameter': '4', 'feeds-surface': '575' })
     expect(result(w, 'rpm')).toContain('549 rpm')
   })
 
-  it('inch: 100 SFM on 0.5 in is 764 rpm, not the 800 of the 4·V/D shortcut (REFERENCES §2.A)', async () => {
+  it('inch: 100 SFM on 0.5 in is 764 rpm, not the 800 of the 4·V/D shortcut (hand calculation)', async () => {
     const w = await mountSuspended(FeedsCalculator, { props: { initialUnits: 'in' } })
     await fill(w, { 'feeds-diameter': '0.5', 'feeds-surface': '100' })
     expect(result(w, 'rpm')).toContain('764 rpm')
   })
 
-  it('back from rpm: 18000 rpm on 6.35 mm is 359.1 m/min, and 1178 SFM on 1/4 in (REFERENCES §2.A)', async () => {
+  it('back from rpm: 18000 rpm on 6.35 mm is 359.1 m/min, and 1178 SFM on 1/4 in (hand calculation)', async () => {
     const w = await mountSuspended(FeedsCalculator, { props: { initialUnits: 'mm' } })
     await choose(w, 'feeds-speed', 'rpm')
     await fill(w, { 'feeds-diameter': '6.35', 'feeds-rpm': '18000' })
@@ -48,14 +48,14 @@ describe('Feeds screen', () => {
     expect(result(w, 'surfaceSpeed')).toContain('1178 SFM')
   })
 
-  it('feed from chip load: 0.004 in × 32 teeth × 88 rpm = 11.264 in/min (published as 11.2, REFERENCES 1.6, CONFIRMED-2nd)', async () => {
+  it('feed from chip load: 0.004 in × 32 teeth × 88 rpm = 11.264 in/min (published as 11.2, New Concepts in Milling Handbook, 1973)', async () => {
     const w = await mountSuspended(FeedsCalculator, { props: { initialUnits: 'in' } })
     await choose(w, 'feeds-speed', 'rpm')
     await fill(w, { 'feeds-diameter': '4', 'feeds-flutes': '32', 'feeds-rpm': '88', 'feeds-chip': '0.004' })
     expect(result(w, 'feed')).toContain('11.26 in/min')
   })
 
-  it('metric feed and back: 0.1 mm × 2 × 18000 rpm = 3600 mm/min, and 3600 mm/min gives 0.1 mm per tooth (REFERENCES §2.A)', async () => {
+  it('metric feed and back: 0.1 mm × 2 × 18000 rpm = 3600 mm/min, and 3600 mm/min gives 0.1 mm per tooth (hand calculation)', async () => {
     const w = await mountSuspended(FeedsCalculator, { props: { initialUnits: 'mm' } })
     await choose(w, 'feeds-speed', 'rpm')
     await fill(w, { 'feeds-diameter': '6', 'feeds-flutes': '2', 'feeds-rpm': '18000', 'feeds-chip': '0.1' })
@@ -65,7 +65,7 @@ describe('Feeds screen', () => {
     expect(result(w, 'chipLoad')).toContain('0.1 mm/tooth')
   })
 
-  it('removal rate: 20 mm × 0.5 mm at 3000 mm/min = 30 cm³/min (REFERENCES 1.7 and §2.A)', async () => {
+  it('removal rate: 20 mm × 0.5 mm at 3000 mm/min = 30 cm³/min (MRR = F·W·t, hand calculation)', async () => {
     const w = await mountSuspended(FeedsCalculator, { props: { initialUnits: 'mm' } })
     await choose(w, 'feeds-speed', 'rpm')
     await choose(w, 'feeds-feed', 'feed')

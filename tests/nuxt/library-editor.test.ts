@@ -139,7 +139,7 @@ describe('LibraryProcedureEditor', () => {
 })
 
 // Hue (degrees) and WCAG relative luminance of a #RRGGBB colour. The luminance formula is WCAG
-// 2.2's definition for SC 1.4.3 (from memory; not yet in REFERENCES).
+// 2.2's definition for SC 1.4.3 (from memory).
 function hue(hex: string) {
   const [r, g, b] = [1, 3, 5].map(i => Number.parseInt(hex.slice(i, i + 2), 16) / 255) as [number, number, number]
   const max = Math.max(r, g, b)
@@ -162,7 +162,7 @@ const hexOf = (css: string) => {
 }
 
 describe('HoldPanel', () => {
-  // ANSI Z535.4 §4.14 / Z535.6 (REFERENCES 5.12): DANGER red, WARNING orange, CAUTION yellow,
+  // ANSI Z535.4-2007 §4.14 / Z535.6: DANGER red, WARNING orange, CAUTION yellow,
   // NOTICE blue; the safety-alert symbol goes with every word except NOTICE. Hue bands are the
   // usual colour-name ranges of the HSL wheel (common practice, no published source).
   it.each([

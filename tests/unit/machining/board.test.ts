@@ -9,9 +9,9 @@ function analysis(input: BoardInput): BoardAnalysis {
   return r.analysis
 }
 
-// REFERENCES §2.D test vector F1 (COMPUTED there with an SVD least-squares solver and a linear program): exact
+// Test vector F1, computed independently (SVD least squares; a linear program for the minimum zone): exact
 // saddle z = 0.10 + 0.001x − 0.0005y + 0.05(x−100)(y−100)/10⁴ on x, y ∈ {0, 100, 200} mm.
-describe('F1 saddle on a 3 × 3 grid (REFERENCES §2.D)', () => {
+describe('F1 saddle on a 3 × 3 grid (hand calculation)', () => {
   const f1 = analysis({
     kind: 'height',
     grid: [

@@ -6,38 +6,41 @@ import {
 } from '../../../shared/machining/feeds'
 import { metersPerMinuteToSfm } from '../../../shared/machining/units'
 
-describe('spindle speed from surface speed (REFERENCES 1.1, 1.2 and §2.A)', () => {
+describe('spindle speed from surface speed (Machinery\'s Handbook cutting speed formulas)', () => {
   it.each([
-    // metric n = 1000 Vc / (pi D): 1.2 CONFIRMED-2nd; calculator values 1.4 CONFIRMED-2nd
-    { v: 100, d: 10, unit: 'mm', rpm: 3183.0989, status: 'CONFIRMED-2nd (published 3183.10)' },
-    { v: 120, d: 20, unit: 'mm', rpm: 1909.8593, status: 'CONFIRMED-2nd (published 1909.86)' },
-    // inch N = 12 V / (pi D): 1.1 CONFIRMED-2nd
-    { v: 100, d: 0.5, unit: 'in', rpm: 763.9437, status: 'COMPUTED (the 4V/D shortcut would say 800)' },
-    // handbook example 1.3: 4 in bar at 575 fpm -> 549 rpm; wording MEMORY, arithmetic COMPUTED
-    { v: 575, d: 4, unit: 'in', rpm: 549.0846, status: 'MEMORY example, COMPUTED arithmetic' },
+    // metric n = 1000 Vc / (pi D): Machinery's Handbook (read in secondary copies); values published
+    // by two online spindle-speed calculators (read there)
+    { v: 100, d: 10, unit: 'mm', rpm: 3183.0989, status: 'published calculator value 3183.10' },
+    { v: 120, d: 20, unit: 'mm', rpm: 1909.8593, status: 'published calculator value 1909.86' },
+    // inch N = 12 V / (pi D): Machinery's Handbook, Cutting Speed Formulas (formula read in secondary
+    // copies; section name from memory)
+    { v: 100, d: 0.5, unit: 'in', rpm: 763.9437, status: 'hand calculation (the 4V/D shortcut would say 800)' },
+    // Machinery's Handbook, Cutting Speed Formulas, Example 1: 4 in bar at 575 fpm -> 549 rpm;
+    // wording from memory, arithmetic by hand calculation
+    { v: 575, d: 4, unit: 'in', rpm: 549.0846, status: 'handbook example from memory, hand-calculated arithmetic' },
   ] as const)('$v per min at D $d $unit -> $rpm rpm [$status]', ({ v, d, unit, rpm }) => {
     expect(rpmFromSurfaceSpeed(v, d, unit)).toBeCloseTo(rpm, 4)
   })
 
-  it('handbook example 1.3 rounds to the published 549 rpm (MEMORY)', () => {
+  it('the handbook\'s Example 1 rounds to the published 549 rpm (from memory)', () => {
     expect(Math.round(rpmFromSurfaceSpeed(575, 4, 'in'))).toBe(549)
   })
 
   it.each([
-    // §2.A COMPUTED vectors from 1.1/1.2
+    // Hand-calculated vectors from V = π·D·N/12 and Vc = π·D·n/1000 (Machinery's Handbook)
     { rpm: 18000, d: 6.35, unit: 'mm', v: 359.0840 },
     { rpm: 12000, d: 25.4, unit: 'mm', v: 957.5574 },
     { rpm: 18000, d: 0.25, unit: 'in', v: 1178.0972 },
     { rpm: 12000, d: 1, unit: 'in', v: 3141.5927 },
-  ] as const)('$rpm rpm at D $d $unit -> surface speed $v [COMPUTED, §2.A]', ({ rpm, d, unit, v }) => {
+  ] as const)('$rpm rpm at D $d $unit -> surface speed $v [hand calculation]', ({ rpm, d, unit, v }) => {
     expect(surfaceSpeedFromRpm(rpm, d, unit)).toBeCloseTo(v, 4)
   })
 
-  it('18000 rpm on a 6.35 mm cutter is 359.0840 m/min = 1178.0972 SFM (§2.A, COMPUTED)', () => {
+  it('18000 rpm on a 6.35 mm cutter is 359.0840 m/min = 1178.0972 SFM (hand calculation)', () => {
     expect(metersPerMinuteToSfm(surfaceSpeedFromRpm(18000, 6.35, 'mm'))).toBeCloseTo(1178.0972, 4)
   })
 
-  // §2.A property tests: n(Vc(D, n)) = n, and a change of units leaves rpm unchanged.
+  // Property tests: n(Vc(D, n)) = n, and a change of units leaves rpm unchanged.
   it('inverts exactly and gives the same rpm in inch and metric units', () => {
     fc.assert(fc.property(
       fc.double({ min: 100, max: 60000, noNaN: true }),
@@ -52,22 +55,24 @@ describe('spindle speed from surface speed (REFERENCES 1.1, 1.2 and §2.A)', () 
   })
 })
 
-describe('feed, chip load and removal rate (REFERENCES 1.5-1.7 and §2.A)', () => {
+describe('feed, chip load and removal rate (Machinery\'s Handbook feeds for milling, MRR = F·W·t)', () => {
   it.each([
-    // v_f = f_z z n: 1.5 CONFIRMED-2nd; vector COMPUTED
-    { chip: 0.1, flutes: 2, rpm: 18000, feed: 3600, status: 'COMPUTED from 1.5' },
-    // cutter maker's handbook example 1.6: 0.004 in x 32 teeth x 88 rpm = 11.264 (published 11.2)
-    { chip: 0.004, flutes: 32, rpm: 88, feed: 11.264, status: 'CONFIRMED-2nd' },
+    // v_f = f_z z n: Machinery's Handbook, feeds for milling, and US Army TC 9-524 (1996), App. C
+    // (read in secondary copies; the appendix from memory); vector by hand calculation
+    { chip: 0.1, flutes: 2, rpm: 18000, feed: 3600, status: 'hand calculation' },
+    // New Concepts in Milling Handbook (1973), "Selecting Feed in Chip Load per Tooth":
+    // 0.004 in x 32 teeth x 88 rpm = 11.264 (published 11.2)
+    { chip: 0.004, flutes: 32, rpm: 88, feed: 11.264, status: 'published example, 11.2' },
   ])('$chip per tooth x $flutes x $rpm rpm = $feed per min [$status]', ({ chip, flutes, rpm, feed }) => {
     expect(feedFromChipLoad(chip, flutes, rpm)).toBeCloseTo(feed, 9)
     expect(chipLoadFromFeed(feed, flutes, rpm)).toBeCloseTo(chip, 12)
   })
 
-  it('MRR = width x depth x feed: 20 mm x 0.5 mm x 3000 mm/min = 30 cm³/min (1.7, CONFIRMED-2nd formula; §2.A COMPUTED)', () => {
+  it('MRR = width x depth x feed: 20 mm x 0.5 mm x 3000 mm/min = 30 cm³/min (Machinery\'s Handbook MRR formula; hand calculation)', () => {
     expect(materialRemovalRate(20, 0.5, 3000)).toBeCloseTo(30000, 9)
   })
 
-  // §2.A property: vf / (z n) = fz.
+  // Property: vf / (z n) = fz.
   it('recovers the chip load from the feed it gives', () => {
     fc.assert(fc.property(
       fc.double({ min: 0.001, max: 1, noNaN: true }),
@@ -90,7 +95,7 @@ describe('feed, chip load and removal rate (REFERENCES 1.5-1.7 and §2.A)', () =
 })
 
 describe('the Feeds screen calculation', () => {
-  it('fills in surface speed, feed and removal rate from rpm and chip load (§2.A vectors)', () => {
+  it('fills in surface speed, feed and removal rate from rpm and chip load (hand-calculated vectors)', () => {
     const r = computeFeeds({ units: 'mm', diameter: 6.35, flutes: 2, rpm: 18000, chipLoad: 0.1, widthOfCut: 20, depthOfCut: 0.5 })
     expect(r.ok).toBe(true)
     if (!r.ok) return
@@ -100,7 +105,7 @@ describe('the Feeds screen calculation', () => {
     expect(r.feeds.removalRate).toBeCloseTo(20 * 0.5 * 3600, 6)
   })
 
-  it('works back from surface speed and feed in inches (1.1, 1.6)', () => {
+  it('works back from surface speed and feed in inches (handbook Example 1 and the 1973 milling handbook feed)', () => {
     const r = computeFeeds({ units: 'in', diameter: 4, flutes: 32, surfaceSpeed: 575, feed: 11.264 })
     expect(r.ok).toBe(true)
     if (!r.ok) return

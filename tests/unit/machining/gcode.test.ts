@@ -144,7 +144,7 @@ describe('surfacing programs read back by an independent G-code toolpath library
     }), { numRuns: 80 })
   }, PROPERTY_TIMEOUT)
 
-  it('follow the RS274/NGC line rules and end with the spindle off (NISTIR 6556, REFERENCES §2.C)', () => {
+  it('follow the RS274/NGC line rules and end with the spindle off (NISTIR 6556 §3.1-§3.7, Table 4)', () => {
     fc.assert(fc.property(inputs, (input) => {
       const plan = planOf(input)
       const text = surfacingGcode(plan)
@@ -204,7 +204,7 @@ describe('surfacing programs read back by an independent G-code toolpath library
   }, PROPERTY_TIMEOUT)
 })
 
-describe('the line-rule checker itself catches broken programs (NISTIR 6556 examples, REFERENCES §2.C)', () => {
+describe('the line-rule checker itself catches broken programs (NISTIR 6556 examples, Table 4)', () => {
   const good = ['%', 'G21', 'G90', 'G17', 'G94', 'S18000 M3', 'G0 Z5', 'G1 Z-0.5 F500', 'G1 X10', 'G0 Z5', 'M5', 'M30', '%'].join('\n')
   it('passes a well-formed program', () => {
     expect(rs274Problems(good)).toEqual([])

@@ -33,7 +33,7 @@ function normalEquations(design: number[][], y: number[]): number[] {
 }
 
 describe('least squares against NIST StRD certified values', () => {
-  // NIST StRD Norris.dat (REFERENCES 3.7, CONFIRMED): lower difficulty, 2 parameters.
+  // NIST StRD Norris.dat, certified values: lower difficulty, 2 parameters.
   const norrisFit = leastSquares(norris.data.map(([, x]) => [1, x]), norris.data.map(([y]) => y))
   it('has the 36 Norris observations', () => {
     expect(norris.data).toHaveLength(36)
@@ -51,8 +51,8 @@ describe('least squares against NIST StRD certified values', () => {
     expect(norrisFit.degreesOfFreedom).toBe(34)
   })
 
-  // NIST StRD Longley.dat (REFERENCES 3.8, CONFIRMED): ill-conditioned, 7 parameters.
-  // REFERENCES §2.D: QR/SVD solvers reach 11-12 digits; we ask for 1e-9 relative.
+  // NIST StRD Longley.dat, certified values: ill-conditioned, 7 parameters.
+  // Computed independently: QR/SVD least squares reach 11-12 digits on Longley; we ask for 1e-9 relative.
   const design = longley.data.map(row => [1, ...row.slice(1)])
   const ys = longley.data.map(row => row[0]!)
   const longleyFit = leastSquares(design, ys)
@@ -69,7 +69,7 @@ describe('least squares against NIST StRD certified values', () => {
     expect(relErr(longleyFit.residualStandardDeviation, longley.certified.residualStandardDeviation)).toBeLessThan(1e-9)
     expect(relErr(longleyFit.rSquared, longley.certified.rSquared)).toBeLessThan(1e-12)
   })
-  // NIST StRD Wampler1.dat (REFERENCES 3.9, CONFIRMED): exact quintic, every B = 1.
+  // NIST StRD Wampler1.dat, certified values: exact quintic, every B = 1.
   const wDesign = wampler1.data.map(([, x]) => [1, x, x ** 2, x ** 3, x ** 4, x ** 5])
   const wFit = leastSquares(wDesign, wampler1.data.map(([y]) => y))
   it('generates the same 21 rows as the published Wampler1 data', () => {
@@ -83,7 +83,7 @@ describe('least squares against NIST StRD certified values', () => {
     expect(Math.abs(wFit.rSquared - 1)).toBeLessThan(1e-15)
   })
 
-  // REFERENCES §2.D: forming X^T X in double precision fails Longley/Wampler; these checks
+  // Computed independently: forming X^T X in double precision fails Longley/Wampler; these checks
   // show the tolerances above are tight enough to tell the two methods apart.
   it('the normal-equations shortcut misses the certified values at the same tolerances', () => {
     const l = normalEquations(design, ys)
@@ -107,7 +107,7 @@ describe('least-squares input errors', () => {
 })
 
 describe('plane fits', () => {
-  // scikit-spatial Plane.best_fit docstring example (REFERENCES 3.6, CONFIRMED): points
+  // scikit-spatial Plane.best_fit docstring example (recomputed independently): points
   // (0,0,0), (1,0,0), (0,1,0), (0,0,1) -> centroid (0.25, 0.25, 0.25), normal (1,1,1)/sqrt(3).
   it('reproduces the scikit-spatial best-fit plane example', () => {
     const fit = fitPlaneOrthogonal([

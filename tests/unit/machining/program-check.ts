@@ -28,7 +28,7 @@ export function readProgram(text: string) {
   return { segments, lines, modal: toolpath.getModal() }
 }
 
-// NISTIR 6556 Table 4 (REFERENCES 2.9, CONFIRMED).
+// NIST RS274/NGC interpreter, NISTIR 6556 Table 4 (modal groups).
 const G_GROUPS: Record<string, number[]> = {
   0: [4, 10, 28, 30, 53, 92, 92.1, 92.2, 92.3],
   1: [0, 1, 2, 3, 38.2, 80, 81, 82, 83, 84, 85, 86, 87, 88, 89],
@@ -52,15 +52,15 @@ const M_GROUPS: Record<string, number[]> = {
 const groupOf = (groups: Record<string, number[]>, code: number) =>
   Object.keys(groups).find(g => groups[g]!.some(c => Math.abs(c - code) < 1e-4))
 
-/** Every breach of the REFERENCES §2.C rules, as readable strings; [] when the program is clean. */
+/** Every breach of the NISTIR 6556 line rules below (and our explicit-setup rule), as readable strings; [] when the program is clean. */
 export function rs274Problems(text: string): string[] {
   const problems: string[] = []
   const raw = text.split('\n')
   const nonBlank = raw.map(l => l.trim()).filter(Boolean)
-  // §2.C.8 / 2.11: % must be both the first and the last non-blank line if used.
+  // NISTIR 6556 §3.1: % must be both the first and the last non-blank line if used.
   if (nonBlank.includes('%') && (nonBlank[0] !== '%' || nonBlank.at(-1) !== '%')) problems.push('% is not first and last')
   nonBlank.forEach((l, i) => {
-    if (l.length > 256) problems.push(`line ${i + 1} is longer than 256 characters`) // §2.C.9
+    if (l.length > 256) problems.push(`line ${i + 1} is longer than 256 characters`) // NISTIR 6556 §3.3
   })
   const { lines } = readProgram(text)
   let motion: number | null = null
@@ -75,26 +75,26 @@ export function rs274Problems(text: string): string[] {
     const where = `line ${i + 1} "${line}"`
     const gs = words.filter(([l]) => l === 'G').map(([, v]) => v)
     const ms = words.filter(([l]) => l === 'M').map(([, v]) => v)
-    // §2.C.1: no two G words from one modal group.
+    // NISTIR 6556 §3.3.5, Table 4: no two G words from one modal group.
     const gGroups = gs.map(code => groupOf(G_GROUPS, code))
     if (gGroups.some(g => g === undefined)) problems.push(`${where}: unknown G code`)
     if (new Set(gGroups).size !== gGroups.length) problems.push(`${where}: two G words from one modal group`)
-    // §2.C.2: at most 4 M words, none from the same group.
+    // NISTIR 6556 §3.3.5: at most 4 M words, none from the same group.
     const mGroups = ms.map(code => groupOf(M_GROUPS, code))
     if (ms.length > 4) problems.push(`${where}: more than 4 M words`)
     if (mGroups.some(g => g === undefined)) problems.push(`${where}: unknown M code`)
     if (new Set(mGroups).size !== mGroups.length) problems.push(`${where}: two M words from one modal group`)
-    // 2.9: other letters at most once per line.
+    // NISTIR 6556 §3.3.5: other letters at most once per line.
     const others = words.filter(([l]) => l !== 'G' && l !== 'M').map(([l]) => l)
     if (new Set(others).size !== others.length) problems.push(`${where}: a word letter repeats`)
     const value = (letter: string) => words.find(([l]) => l === letter)?.[1]
-    // §2.C.10: no negative F or S.
+    // NISTIR 6556 §3.7.2 (a negative S is an error; F is held to the same): no negative F or S.
     if ((value('F') ?? 0) < 0 || (value('S') ?? 0) < 0) problems.push(`${where}: negative F or S`)
     if (value('F') !== undefined) feed = value('F')!
     if (value('S') !== undefined) speed = value('S')!
     if (gs.some(g => g === 20 || g === 21)) {
       units++
-      if (sawMotion) problems.push(`${where}: units set after motion`) // §2.C.3
+      if (sawMotion) problems.push(`${where}: units set after motion`) // NISTIR 6556 §3.5.7 advice
       set.units = true
     }
     if (gs.includes(90)) set.distance = true
@@ -106,21 +106,22 @@ export function rs274Problems(text: string): string[] {
     if (motionWord !== undefined) motion = motionWord
     const axisWords = words.filter(([l]) => 'XYZABC'.includes(l))
     const isMotion = axisWords.length > 0 && !gs.some(g => groupOf(G_GROUPS, g) === '0')
-    // §2.C.5: a G0/G1 line needs an axis word.
+    // NISTIR 6556 §3.5.1-3.5.2: a G0/G1 line needs an axis word.
     if (motionWord !== undefined && axisWords.length === 0) problems.push(`${where}: motion without an axis word`)
     if (isMotion) {
-      if (!set.units || !set.distance || !set.plane || !set.feedMode) problems.push(`${where}: motion before G20/G21, G90, G17 and G94 are set`) // §2.C.3-4
+      if (!set.units || !set.distance || !set.plane || !set.feedMode) problems.push(`${where}: motion before G20/G21, G90, G17 and G94 are set`) // NISTIR 6556 §3.5.7; explicit setup is common practice, no published source
       sawMotion = true
       if (motion === 1) {
-        if (!(feed > 0)) problems.push(`${where}: G1 with no feed in force`) // §2.C.6
-        if (!spindleOn || !(speed > 0)) problems.push(`${where}: cutting with the spindle off`) // §2.C.7
+        if (!(feed > 0)) problems.push(`${where}: G1 with no feed in force`) // NISTIR 6556 App. A, zero feed error
+        if (!spindleOn || !(speed > 0)) problems.push(`${where}: cutting with the spindle off`) // NISTIR 6556 §3.6.2, §3.7.2
         sawCut = true
       }
     }
   })
-  if (units !== 1) problems.push(`units set ${units} times, not once`) // §2.C.3
+  if (units !== 1) problems.push(`units set ${units} times, not once`) // NISTIR 6556 §3.5.7 advice
   if (!sawCut) problems.push('no cutting move')
-  // §2.C.7-8: spindle stopped, then the program ends with M30 (or M2).
+  // NISTIR 6556 §3.6.1: the program ends with M30 (or M2); stopping the spindle first with M5
+  // is common practice, no published source.
   const coded = lines.filter(l => l.words.length > 0)
   const tail = coded.slice(-2).map(l => l.words.map(([a, b]) => `${a}${b}`).join(' '))
   if (tail[0] !== 'M5' || (tail[1] !== 'M30' && tail[1] !== 'M2')) problems.push(`program ends with ${tail.join(', ')}, not M5 then M30`)

@@ -1,6 +1,6 @@
 // Convention under test (Jogwise's own, see shared/machining/surfacing.ts): overhang is how far
 // the cutter CENTRE runs past each edge of the area. With overhang 0 the centre covers X 0..L
-// and Y 0..W, which is convention A of REFERENCES §2.B (n = ceil(W/s) + 1 lines of length L,
+// and Y 0..W, which is convention A of our hand calculation (n = ceil(W/s) + 1 lines of length L,
 // joined by zigzag stepovers; plunges, retracts and rapids are not cutting length).
 import { describe, expect, it } from 'vitest'
 import { planSurfacing, summarizeSurfacing, type SurfacingPlan } from '../../../shared/machining/surfacing'
@@ -30,10 +30,10 @@ function plan(over: Partial<SurfacingInput> = {}, options = {}): SurfacingPlan {
   return r.plan
 }
 
-// Acceleration so large the ramps vanish: time = length / feed, as the §2.B table assumes.
+// Acceleration so large the ramps vanish: time = length / feed, as the hand-calculated plan assumes.
 const NO_RAMPS = { accelMmS2: 1e15 }
 
-describe('REFERENCES §2.B worked plan, convention A (COMPUTED)', () => {
+describe('worked plan, convention A (hand calculation)', () => {
   const p = plan({}, NO_RAMPS)
   it.each([
     ['lines', p.lineCount, 24],
@@ -42,7 +42,7 @@ describe('REFERENCES §2.B worked plan, convention A (COMPUTED)', () => {
     ['cutting time @3000 mm/min in minutes', p.time.cutting / 60, 4.9333333],
     ['removed volume 600·400·0.5 mm³', p.removedVolume, 120000],
     ['chip load 3000/(2·12000) mm (1.5)', p.chipLoad, 0.125],
-    ['surface speed at 12000 rpm, D 25.4 m/min (§2.A)', p.surfaceSpeed, 957.5574],
+    ['surface speed at 12000 rpm, D 25.4 m/min (hand calculation, π·D·n/1000)', p.surfaceSpeed, 957.5574],
   ])('%s', (_label, actual, expected) => {
     expect(actual).toBeCloseTo(expected, 4)
   })
@@ -61,7 +61,7 @@ describe('REFERENCES §2.B worked plan, convention A (COMPUTED)', () => {
   })
 })
 
-describe('REFERENCES §2.B inch variant (COMPUTED)', () => {
+describe('worked plan, inch variant (hand calculation)', () => {
   const p = plan({
     units: 'in', area: { x: 24, y: 16 }, cutter: { diameter: 1, flutes: 2 }, totalDepth: 0.02,
     depthPerPass: 0.02, feed: 120, plunge: 20, safeZ: 0.2,
@@ -76,13 +76,13 @@ describe('REFERENCES §2.B inch variant (COMPUTED)', () => {
   ])('%s', (_label, actual, expected) => {
     expect(actual).toBeCloseTo(expected, 2)
   })
-  it('reports surface speed in SFM (1.1: 12000 rpm on a 1 in cutter is 1000π SFM)', () => {
+  it('reports surface speed in SFM (V = π·D·N/12: 12000 rpm on a 1 in cutter is 1000π SFM)', () => {
     expect(p.surfaceSpeedUnit).toBe('SFM')
     expect(p.surfaceSpeed).toBeCloseTo(1000 * Math.PI, 6)
   })
 })
 
-describe('floating-point pitfall of REFERENCES §2.B (COMPUTED)', () => {
+describe('floating-point pitfall of the worked plan (IEEE 754 double, hand calculation)', () => {
   it('0.7 × 25.4 is not 17.78 in binary floating point, so a naive ceil over-counts', () => {
     expect(0.7 * 25.4).not.toBe(17.78)
     expect(Math.ceil(355.6 / (0.7 * 25.4))).toBe(21)
@@ -175,7 +175,7 @@ describe('time estimate with acceleration (trapezoidal profile)', () => {
     expect(moveSeconds(length, rate, accel)).toBeCloseTo(seconds, 12)
   })
 
-  it('adds v/a for each of the 47 cutting moves of the §2.B plan (24 lines + 23 stepovers)', () => {
+  it('adds v/a for each of the 47 cutting moves of the worked plan (24 lines + 23 stepovers)', () => {
     const fast = plan({}, NO_RAMPS)
     const real = plan({}, { accelMmS2: 500 })
     expect(real.time.cutting - fast.time.cutting).toBeCloseTo(47 * (50 / 500), 6)

@@ -7,8 +7,8 @@ import {
 } from '../../../shared/machining/units'
 
 describe('exact inch conversions', () => {
-  // NBS Circular 572 addendum (1960) / NIST SP 811: 1 in = 25.4 mm exactly (REFERENCES 4.1, CONFIRMED);
-  // decimal examples from REFERENCES §2.E (exact decimal arithmetic).
+  // NBS Circular 572 addendum (1960) / NIST SP 811: 1 in = 25.4 mm exactly;
+  // decimal examples by hand calculation (exact decimal arithmetic).
   it.each([
     [1, 25.4],
     [0.25, 6.35],
@@ -22,25 +22,25 @@ describe('exact inch conversions', () => {
     expect(convertLength(inches, 'in', 'mm')).toBeCloseTo(mm, 12)
   })
 
-  it('uses 25.4, not the pre-1959 39.37 in/m (REFERENCES §2.E, 4.3)', () => {
+  it('uses 25.4, not the pre-1959 39.37 in/m (NBS Circular 572 addendum, 1960)', () => {
     // 1000 mm is 39.370078... in under the 1959 definition, not 39.37.
     expect(fromMm(1000, 'in')).toBeCloseTo(39.37007874015748, 12)
     expect(Math.abs(fromMm(1000, 'in') - 39.37)).toBeGreaterThan(1e-5)
   })
 
-  // REFERENCES 4.2 (COMPUTED from 4.1): 1 ft = 0.3048 m, 1 in/min = 25.4 mm/min, 1 in³ = 16.387064 cm³.
+  // Hand calculation from 1 in = 25.4 mm exactly: 1 ft = 0.3048 m, 1 in/min = 25.4 mm/min, 1 in³ = 16.387064 cm³.
   it.each([
-    ['1000 SFM = 304.8 m/min (§2.A)', sfmToMetersPerMinute(1000), 304.8],
+    ['1000 SFM = 304.8 m/min (hand calculation)', sfmToMetersPerMinute(1000), 304.8],
     ['1 SFM = 0.3048 m/min', sfmToMetersPerMinute(1), 0.3048],
     ['304.8 m/min = 1000 SFM', metersPerMinuteToSfm(304.8), 1000],
     ['100 in/min = 2540 mm/min', convertFeed(100, 'in', 'mm'), 2540],
     ['1 in³ = 16387.064 mm³', convertVolume(1, 'in', 'mm'), 16387.064],
-    ['7.68 in³ = 125.85 cm³ (§2.B inch variant)', convertVolume(7.68, 'in', 'mm') / 1000, 125.8526515],
+    ['7.68 in³ = 125.85 cm³ (worked plan, inch variant)', convertVolume(7.68, 'in', 'mm') / 1000, 125.8526515],
   ])('%s', (_label, value, expected) => {
     expect(value).toBeCloseTo(expected, 6)
   })
 
-  // REFERENCES §2.E: with binary floats the round trip holds to 1e-12 relative.
+  // With binary floats the round trip holds to 1e-12 relative (our tolerance, common practice, no published source).
   it('round-trips lengths, feeds, volumes and surface speeds within 1e-12 relative', () => {
     fc.assert(fc.property(fc.double({ min: 1e-6, max: 1e6, noNaN: true }), (v) => {
       expect(Math.abs(convertLength(convertLength(v, 'mm', 'in'), 'in', 'mm') - v) / v).toBeLessThan(1e-12)

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { SIGNAL_WORD_INFO, SIGNAL_WORDS, SIGNAL_WORDS_BY_SEVERITY } from '../../../shared/procedures/signal-words'
 
 describe('signal words', () => {
-  // ANSI Z535.4-2007 §4.14 (REFERENCES 5.12, CONFIRMED-2nd): DANGER "will" and WARNING "could"
+  // ANSI Z535.4-2007 §4.14 (wording read in a secondary copy): DANGER "will" and WARNING "could"
   // result in death or serious injury; CAUTION could result in minor or moderate injury;
   // NOTICE is for practices not related to personal injury and never carries the alert symbol.
   it.each<[string, string, string | null, boolean]>([
@@ -15,12 +15,12 @@ describe('signal words', () => {
     expect(info).toMatchObject({ word, harm, likelihood, alertSymbol: alert })
   })
 
-  // Colours from the same standard (REFERENCES 5.12, CONFIRMED-2nd).
+  // Colours from the same standard (read in a secondary copy).
   it.each([['DANGER', 'red'], ['WARNING', 'orange'], ['CAUTION', 'yellow'], ['NOTICE', 'blue']] as const)('%s uses %s', (word, colour) => {
     expect(SIGNAL_WORD_INFO[word].colour).toBe(colour)
   })
 
-  // ISO 3864-2 has the first three words only (REFERENCES 5.13; "no NOTICE" is MEMORY).
+  // ISO 3864-2 (2004, 2016) has the first three words only ("no NOTICE" is from memory).
   it('marks which words ISO 3864-2 shares', () => {
     expect(SIGNAL_WORDS.filter(w => SIGNAL_WORD_INFO[w].inIso3864)).toEqual(['DANGER', 'WARNING', 'CAUTION'])
   })

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { parseProcedure, SUPPLEMENT_NOTICE, type HoldStep, type Procedure, type ProcedureStep } from '../../../shared/procedures/schema'
 import { STARTER_LIBRARY, starterProcedure } from '../../../shared/procedures/starter-library'
 
-// Content checks of the starter library against the safety sources in REFERENCES.md §F. These
+// Content checks of the starter library against the safety sources named beside each check. These
 // are checks on the text a shop starts with, not legal advice.
 
 const parsed = new Map<string, Procedure>(STARTER_LIBRARY.map((p) => {
@@ -49,33 +49,33 @@ describe('starter library', () => {
 })
 
 describe('signal words of the starter holds', () => {
-  // ANSI Z535.4 §4.14 (REFERENCES 5.12, §F): WARNING/DANGER for death or serious injury,
+  // ANSI Z535.4-2007 §4.14: WARNING/DANGER for death or serious injury,
   // CAUTION for minor or moderate injury, NOTICE for property only. Each row says why.
   const expected: [string, string, readonly string[], string][] = [
-    ['spoilboard-resurfacing', 'isolate-power', ['WARNING', 'DANGER'], '§F LOTO: shock or unexpected start-up while hands are near the cutter'],
-    ['spoilboard-resurfacing', 'isolate-power-sensor', ['WARNING', 'DANGER'], '§F LOTO, same hazard when plugging the sensor back in'],
-    ['spoilboard-resurfacing', 'protective-gear', ['WARNING'], '5.6 eyes, 5.5 noise, 5.7 wood dust Group 1 carcinogen: serious harm'],
-    ['spoilboard-resurfacing', 'stay-with-machine', ['WARNING'], '5.15 practice: thrown cutter or dust fire, serious injury'],
-    ['spoilboard-resurfacing', 'spindle-stopped-vbit', ['WARNING', 'DANGER'], '§F: unexpected start-up while hands are near the cutter'],
+    ['spoilboard-resurfacing', 'isolate-power', ['WARNING', 'DANGER'], '29 CFR 1910.147 LOTO: shock or unexpected start-up while hands are near the cutter'],
+    ['spoilboard-resurfacing', 'isolate-power-sensor', ['WARNING', 'DANGER'], '29 CFR 1910.147 LOTO, same hazard when plugging the sensor back in'],
+    ['spoilboard-resurfacing', 'protective-gear', ['WARNING'], '29 CFR 1910.133 eyes, 1910.95 noise, IARC Vol. 62 wood dust Group 1 carcinogen: serious harm'],
+    ['spoilboard-resurfacing', 'stay-with-machine', ['WARNING'], 'common practice, no published source: thrown cutter or dust fire, serious injury'],
+    ['spoilboard-resurfacing', 'spindle-stopped-vbit', ['WARNING', 'DANGER'], '29 CFR 1910.147(a)(1)(i): unexpected start-up while hands are near the cutter'],
     ['spoilboard-resurfacing', 'homing-clear', ['CAUTION'], 'pinch by the moving gantry: minor or moderate injury'],
     ['spoilboard-resurfacing', 'sharp-edges', ['CAUTION'], 'cuts while handling a cutter: minor or moderate injury'],
-    ['spoilboard-resurfacing', 'depth-notice', ['NOTICE'], '§F example: surfacing too deep damages the spoilboard'],
+    ['spoilboard-resurfacing', 'depth-notice', ['NOTICE'], 'ANSI Z535.4 NOTICE, property only: surfacing too deep damages the spoilboard'],
     ['spoilboard-resurfacing', 'sensor-off-notice', ['NOTICE'], 'cutter driven into the board: equipment damage only'],
     ['spoilboard-resurfacing', 'coolant-notice', ['NOTICE'], 'overheated spindle: equipment damage only'],
     ['stock-flattening', 'hold-down', ['WARNING'], 'stock thrown by the cutter: serious injury'],
     ['spoilboard-resurfacing', 'cutter-rating', ['WARNING'], 'a cutter over its rated speed or with a loose insert can break apart: serious injury'],
     ['stock-flattening', 'cutter-rating', ['WARNING'], 'the same hazard on the slab cutter'],
     ['stock-flattening', 'clamps-clear', ['WARNING'], 'shattered cutter and clamp thrown: serious injury'],
-    ['spindle-tram-check', 'spindle-isolated', ['WARNING', 'DANGER'], '§F: unexpected start with hands at the sweep arm'],
-    ['spindle-tram-check', 'why-tram', ['NOTICE'], 'ridges on faced surfaces: quality only (REFERENCES 8.3)'],
+    ['spindle-tram-check', 'spindle-isolated', ['WARNING', 'DANGER'], '29 CFR 1910.147(a)(1)(i): unexpected start with hands at the sweep arm'],
+    ['spindle-tram-check', 'why-tram', ['NOTICE'], 'ridges on faced surfaces: quality only (tilted-cutter geometry, hand calculation)'],
     ['tool-change', 'insertion-depth', ['WARNING'], 'bit thrown from the spindle: serious injury'],
     ['tool-change', 'wrenches-off', ['WARNING'], 'wrench flung out at speed: serious injury'],
     ['tool-change', 'collet-notice', ['NOTICE'], 'slipping bit ruins work and bit: property only'],
-    ['daily-start-up', 'estop-reachable', ['WARNING'], '5.4: a stop out of reach cannot prevent serious injury'],
+    ['daily-start-up', 'estop-reachable', ['WARNING'], '29 CFR 1910.213(b)(1), paragraph number from memory: a stop out of reach cannot prevent serious injury'],
     ['daily-start-up', 'warm-up-notice', ['NOTICE'], 'bearing wear: equipment only'],
-    ['end-of-day-shutdown', 'dust-clean', ['WARNING'], '5.7–5.9: wood dust and formaldehyde are Group 1 carcinogens'],
+    ['end-of-day-shutdown', 'dust-clean', ['WARNING'], 'IARC Vol. 62, 88 and 100C: wood dust and formaldehyde are Group 1 carcinogens'],
     ['emergency-stop-test', 'test-hazard', ['WARNING', 'DANGER'], 'a failing stop keeps the machine moving near people'],
-    ['emergency-stop-test', 'failed-stop', ['WARNING', 'DANGER'], '5.4: a machine that cannot be stopped'],
+    ['emergency-stop-test', 'failed-stop', ['WARNING', 'DANGER'], '29 CFR 1910.213(b): a machine that cannot be stopped'],
   ]
   it.each(expected)('%s / %s is %j (%s)', (slug, key, words) => {
     const step = proc(slug).steps.find(s => s.key === key)
@@ -111,7 +111,8 @@ describe('signal words of the starter holds', () => {
       const p = proc(slug)
       const gear = p.steps.find(s => s.key === 'protective-gear') as HoldStep
       expect(gear.signalWord).toBe('WARNING')
-      // Eyes with side shields (5.6), hearing (5.5), respiratory protection for dust (5.7, 5.8).
+      // Eyes with side shields (29 CFR 1910.133), hearing (1910.95), respiratory protection for dust
+      // (IARC Vol. 62 wood dust Group 1; NIOSH REL 1 mg/m³ as listed by OSHA's Wood Dust page).
       expect(gear.avoid).toMatch(/side shields/)
       expect(gear.avoid).toMatch(/ear muffs|plugs/)
       expect(gear.avoid).toMatch(/respirator|dust mask/)
@@ -120,15 +121,15 @@ describe('signal words of the starter holds', () => {
     }
   })
 
-  it('mentions formaldehyde wherever MDF dust is the hazard (REFERENCES 5.9)', () => {
+  it('mentions formaldehyde wherever MDF dust is the hazard (IARC Monographs Vol. 88, urea resins)', () => {
     for (const h of allHolds.map(x => x[2])) if (/MDF/.test(h.hazard)) expect(h.hazard).toMatch(/formaldehyde/)
   })
 })
 
 describe('power isolation before any cable is unplugged or plugged in', () => {
-  // §F LOTO (29 CFR 1910.147(d), REFERENCES 5.2): shut down, isolate, own lock and tag, stored
+  // LOTO (29 CFR 1910.147(d)): shut down, isolate, own lock and tag, stored
   // energy dissipated, isolation verified by a start attempt; cord-and-plug equipment only with
-  // the plug under the worker's exclusive control (5.3).
+  // the plug under the worker's exclusive control (29 CFR 1910.147(a)(2)(iii)(A)).
   it('the isolation hold covers lock, tag, stored energy, a start attempt and the plug', () => {
     const h = proc('spoilboard-resurfacing').steps.find(s => s.key === 'isolate-power') as HoldStep
     expect(h.needsTrainerSignoff).toBe(true)
@@ -155,7 +156,7 @@ describe('power isolation before any cable is unplugged or plugged in', () => {
     }
   })
 
-  it('the lock is removed only by the person who fitted it (REFERENCES 5.2, release)', () => {
+  it('the lock is removed only by the person who fitted it (29 CFR 1910.147(e), release; wording from memory)', () => {
     const restore = proc('spoilboard-resurfacing').steps.find(s => s.key === 'restore-power')!
     expect(restore.body).toMatch(/Remove your own lock/)
     expect(restore.guidance).toMatch(/Only the person who fitted a lock takes it off/)
@@ -185,8 +186,8 @@ describe('spoilboard resurfacing follows the brief, in order', () => {
     expect(p.steps[indexOf(p, 'xy-zero')]!.body).toMatch(/Set X and Y work zero/)
   })
 
-  // Paper-feeler touch-off (REFERENCES 7.2, PRACTICE): shrinking jog steps, then Z = paper
-  // thickness; office paper about 0.1 mm (7.1, CONFIRMED-2nd: 0.1016 mm for 80 g/m²).
+  // Paper-feeler touch-off (common practice, no published source): shrinking jog steps, then Z = paper
+  // thickness; office paper about 0.1 mm (printing caliper 0.004 in = 0.1016 mm for 80 g/m², read in a printing glossary).
   it('sets Z zero with paper in shrinking jog steps and the paper thickness', () => {
     const body = p.steps[indexOf(p, 'z-zero')]!.body
     const steps = [...body.matchAll(/(\d+(?:\.\d+)?) mm/g)].map(m => Number(m[1]))
@@ -220,7 +221,7 @@ describe('spoilboard resurfacing follows the brief, in order', () => {
     expect(p.steps[indexOf(p, 'repeat-pass')]!.body).toMatch(/run the program again/)
   })
 
-  // Per-pass depth 0.25–0.5 mm and repeat 0.1–0.2 mm are shop practice (REFERENCES 7.3, PRACTICE).
+  // Per-pass depth 0.25–0.5 mm and repeat 0.1–0.2 mm are common practice, no published source.
   it('keeps the depth advice inside common practice', () => {
     expect(p.steps[indexOf(p, 'depth-notice')]!.guidance).toMatch(/quarter to half a millimetre per pass/)
     expect(p.steps[indexOf(p, 'repeat-pass')]!.body).toMatch(/0\.1 to 0\.2 mm/)
@@ -233,7 +234,7 @@ describe('spoilboard resurfacing follows the brief, in order', () => {
     expect(s.min).toBeDefined()
     expect(s.max).toBeDefined()
     expect(s.min!).toBeLessThan(s.max!)
-    // A 19 mm (3/4 in) board: 0.75 × 25.4 = 19.05 mm exactly (REFERENCES 4.1); the range tops
+    // A 19 mm (3/4 in) board: 0.75 × 25.4 = 19.05 mm exactly (NBS Circular 572 addendum, 1960); the range tops
     // out just above a new board's thickness.
     expect(s.max!).toBeGreaterThanOrEqual(0.75 * 25.4)
   })
@@ -254,7 +255,7 @@ describe('the other starter procedures', () => {
       expect(c.min!).toBeLessThan(0)
       expect(c.max!).toBeGreaterThan(0)
       // 0.05 mm over a 150 mm sweep is a tilt of about 0.019°; across a 25 mm cutter that is
-      // a step of 25·sin θ ≈ 0.008 mm per pass (REFERENCES 8.3(c), COMPUTED).
+      // a step of 25·sin θ ≈ 0.008 mm per pass (tilted cutter: D·sin θ, hand calculation, no published source).
       const theta = Math.atan(c.max! / 150)
       expect(25 * Math.sin(theta)).toBeLessThan(0.01)
     }
@@ -271,7 +272,7 @@ describe('the other starter procedures', () => {
   it('daily start-up checks the stop is in reach before power-on, and warms the spindle up', () => {
     const p = proc('daily-start-up')
     expect(indexOf(p, 'estop-reachable')).toBeLessThan(indexOf(p, 'power-on'))
-    // REFERENCES 5.4: no automatic restart when power comes on.
+    // 29 CFR 1910.213(b)(3): no automatic restart when power comes on.
     expect(p.steps[indexOf(p, 'power-on')]!.body).toMatch(/Nothing may move until you command it/)
     expect(p.steps[indexOf(p, 'warm-up')]).toMatchObject({ kind: 'check', unit: 'min' })
   })
@@ -284,7 +285,7 @@ describe('the other starter procedures', () => {
     expect(p.steps[indexOf(p, 'power-off')]!.body).toMatch(/main isolator/)
   })
 
-  it('the emergency-stop test checks spindle, axes and no automatic restart (REFERENCES 5.4)', () => {
+  it('the emergency-stop test checks spindle, axes and no automatic restart (29 CFR 1910.213(b)(3))', () => {
     const p = proc('emergency-stop-test')
     expect(p.steps[indexOf(p, 'spindle-stop-time')]).toMatchObject({ kind: 'check', unit: 's', min: 0 })
     expect(p.steps[indexOf(p, 'axis-stop-test')]!.body).toMatch(/The gantry must stop at once/)
@@ -292,7 +293,7 @@ describe('the other starter procedures', () => {
     expect((p.steps[indexOf(p, 'failed-stop')] as HoldStep).avoid).toMatch(/tag the machine out of service/)
   })
 
-  it('every procedure that runs a program keeps someone with the machine (REFERENCES 5.15, PRACTICE)', () => {
+  it('every procedure that runs a program keeps someone with the machine (common practice, no published source)', () => {
     for (const slug of ['spoilboard-resurfacing', 'stock-flattening']) {
       const p = proc(slug)
       expect(indexOf(p, 'stay-with-machine')).toBeLessThan(p.steps.findIndex(s => /^(Run|Face) /.test(s.title)))

@@ -28,7 +28,7 @@ describe('ReadingBodySchema', () => {
 })
 
 describe('readingToMm', () => {
-  // 1 in = 25.4 mm exactly (NBS Circular 572 addendum, REFERENCES 4.1): 0.004 in = 0.1016 mm.
+  // 1 in = 25.4 mm exactly (NBS Circular 572 addendum, 1960): 0.004 in = 0.1016 mm.
   it('converts inch readings exactly', () => {
     const parsed = ReadingBodySchema.parse({ ...valid, units: 'in', grid: [[0.004, 0.25], [1, 0.75]], spacing: { x: 4, y: 1 }, facedDepth: 0.01 })
     const mm = readingToMm(parsed)
