@@ -112,6 +112,13 @@ async function snapshot() {
   const [sums] = await db().query<any[]>(`checksum table ${names.map(n => `\`${n}\``).join(', ')}`)
   const out: Record<string, string> = {}
   for (const n of names) {
+    // The app servers renew their work leases (mail sender, digest) on every tick, whatever the
+    // requests: only the number of lease rows is compared.
+    if (n === 'worker_leases') {
+      const [[{ c }]] = await db().query<any[]>('select count(*) as c from `worker_leases`')
+      out[n] = `${c} rows`
+      continue
+    }
     const [[{ c }]] = await db().query<any[]>(`select count(*) as c from \`${n}\``)
     const sum = sums.find(s => String(s.Table).endsWith(`.${n}`))?.Checksum
     out[n] = `${c} rows, checksum ${sum}`
