@@ -40,7 +40,10 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
   await runReady(op)
   await action.getByRole('button', { name: /Done — (next|last) step/ }).click()
   await expect(op.getByRole('heading', { level: 1 })).toHaveText('Measure the runout')
-  await action.getByLabel(/Runout/).fill('0.12')
+  // The Bench Router works in inches, so the mm check is typed in inches: 0.005 in = 0.127 mm
+  // (1 in = 25.4 mm exactly, NBS Circular 572 addendum), recorded in the step's own mm.
+  await expect(action.getByLabel(/Runout/)).toHaveAccessibleName('Runout (in)')
+  await action.getByLabel(/Runout/).fill('0.005')
   await action.getByLabel(/why is it acceptable/).fill('Collet nut worn, a new one is on order')
   await runReady(op)
   await action.getByRole('button', { name: 'Record reading' }).click()
@@ -69,7 +72,7 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
   await expect(page).toHaveURL(new RegExp(`procedureId=${procedureId}`))
   const rows = page.getByTestId('ledger-row')
   await expect(rows).toHaveCount(1)
-  await expect(rows.first()).toContainText('0.12 mm is above the range (0 to 0.05 mm); reason: Collet nut worn, a new one is on order')
+  await expect(rows.first()).toContainText('0.127 mm is above the range (0 to 0.05 mm); reason: Collet nut worn, a new one is on order')
   await expect(rows.first()).toContainText('Priya Castell')
   await expect(page.getByTestId('pager-status').first()).toHaveText('Page 1 of 1 · 1 entries')
   await page.screenshot({ path: 'test-results/ledger-filtered.png' })
@@ -79,7 +82,7 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
   expect(download.suggestedFilename()).toMatch(/^jogwise-ledger-\d{4}-\d{2}-\d{2}\.csv$/)
   const records = parse(await readFile((await download.path())!), { columns: true }) as Record<string, string>[]
   expect(records).toHaveLength(1)
-  expect(records[0]).toMatchObject({ 'Kind': 'Reading out of range', 'Kind (code)': 'out-of-range', 'Counted': 'yes', 'Reading': '0.12', 'Unit': 'mm', 'Person': 'Priya Castell', 'Machine': 'Bench Router', 'Procedure': title, 'Step': 'Measure the runout', 'Run': runId })
+  expect(records[0]).toMatchObject({ 'Kind': 'Reading out of range', 'Kind (code)': 'out-of-range', 'Counted': 'yes', 'Reading': '0.127', 'Unit': 'mm', 'Person': 'Priya Castell', 'Machine': 'Bench Router', 'Procedure': title, 'Step': 'Measure the runout', 'Run': runId })
   expect(await rows.first().locator('td').nth(4).textContent()).toBe(records[0]!['What happened'])
 
   // "Record" on the row opens the run's record at that entry, highlighted, with the event it
@@ -106,7 +109,7 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
   const photo = page.getByTestId('step-photo').locator('img')
   await expect(photo).toHaveAttribute('src', `/api/uploads/${uploadId}`)
   await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.naturalWidth)).toBeGreaterThan(0)
-  await expect(page.getByText('0.12 mm — reason: Collet nut worn, a new one is on order')).toBeVisible()
+  await expect(page.getByText('0.127 mm — reason: Collet nut worn, a new one is on order')).toBeVisible()
   await page.screenshot({ path: 'test-results/ledger-record.png', fullPage: true })
 
   // The due list from the demo shop's intervals
