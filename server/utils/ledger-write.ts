@@ -44,7 +44,10 @@ function stable(value: unknown): string {
 
 const keyOf = (eventId: string, kind: string) => `${eventId}:${kind}`
 
-export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[], arrivedIds: readonly string[] = []) {
+/** A stored event as the Ledger needs it; refoldRuns passes the rows it has just read. */
+export interface LedgerEventRow { id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, receivedAt: Date, payload: Record<string, unknown> }
+
+export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[], arrivedIds: readonly string[] = [], runEvents?: LedgerEventRow[]) {
   if (!folded.length) return
   const runIds = folded.map(f => f.run.id)
   const l = tables.ledgerEntries
@@ -64,7 +67,7 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
   }
 
   // When each event of these runs arrived, and from which tablet
-  const events = await db.select({ id: e.id, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId, at: e.at, receivedAt: e.receivedAt, payload: e.payload })
+  const events: LedgerEventRow[] = runEvents ?? await db.select({ id: e.id, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId, at: e.at, receivedAt: e.receivedAt, payload: e.payload })
     .from(e).where(and(eq(e.shopId, shopId), inArray(e.runId, runIds)))
   const eventById = new Map(events.map(x => [x.id, x]))
   const arrived = new Set(arrivedIds)
@@ -143,16 +146,17 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
   if (inserts.length) await db.insert(l).ignore().values(inserts)
   if (!changes.length) return
 
-  // Each changed entry: one entry-changed row naming the cause, then the old row marked.
+  // Each changed entry: one entry-changed row naming the cause, then the old row marked; both
+  // in one statement each, however many entries changed.
   const newIds = new Map((await db.select({ id: l.id, entryKey: l.entryKey }).from(l)
     .where(inArray(l.entryKey, changes.flatMap(c => (c.now?.entryKey ? [c.now.entryKey] : ['-']))))).map(r => [r.entryKey, r.id]))
   const now = new Date()
-  for (const c of changes) {
+  const changedRows: Row[] = changes.map((c) => {
     const cause = causeOf(c.base.runId, events, arrived)
     const was = ledgerSummary(c.old.kind, c.old.detail ?? {})
     const then = c.now ? ledgerSummary(c.now.kind!, c.now.detail ?? {}) : null
     const what = then === null ? 'no longer stands' : c.now!.counted === false && c.old.counted ? 'is no longer counted' : 'now reads differently'
-    const [result] = await db.insert(l).ignore().values({
+    return {
       ...c.base,
       eventId: cause?.id ?? c.old.eventId, kind: 'entry-changed', actorId: cause?.actorId ?? c.old.actorId, stepKey: c.old.stepKey,
       at: cause?.receivedAt ?? now, receivedAt: cause?.receivedAt ?? null, entryKey: `changed:${c.old.id}`,
@@ -163,11 +167,20 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
         cause: cause ? { eventId: cause.id, eventType: cause.type, actorId: cause.actorId, deviceId: cause.deviceId, claimedAt: cause.at.toISOString(), receivedAt: cause.receivedAt.toISOString() } : null,
         reason: `Entry #${c.old.id} (${was}) ${what}${then !== null && what === 'now reads differently' ? `: ${then}` : ''}${cause ? `, after a ${cause.type} event dated ${cause.at.toISOString()} arrived at ${cause.receivedAt.toISOString()}` : ''}.`,
       },
-    }) as unknown as [{ affectedRows: number, insertId: number }]
-    // Another merge of the same run got there first: it marked the entry already.
-    if (result.affectedRows !== 1) continue
-    await db.update(l).set({ changedAt: now, changedBy: result.insertId }).where(and(eq(l.id, c.old.id), isNull(l.changedAt)))
-  }
+    }
+  })
+  await db.insert(l).ignore().values(changedRows)
+  // The entry-changed row of each old entry (its key is unique: ours, or another merge's of the
+  // same run that got there first), and the old entries marked by it where still unmarked.
+  const markers = await db.select({ id: l.id, entryKey: l.entryKey }).from(l)
+    .where(inArray(l.entryKey, changedRows.map(r => r.entryKey!)))
+  const markerOf = new Map(markers.map(m => [Number(String(m.entryKey).slice('changed:'.length)), m.id]))
+  const marks = changes.map(c => c.old.id).filter(id => markerOf.has(id))
+  if (!marks.length) return
+  await db.update(l).set({
+    changedAt: now,
+    changedBy: sql`case ${l.id} ${sql.join(marks.map(id => sql`when ${id} then ${markerOf.get(id)!}`), sql` `)} end`,
+  }).where(and(inArray(l.id, marks), isNull(l.changedAt)))
 }
 
 // The event of this batch that changed the run's meaning: the earliest-dated one that arrived

@@ -1,3 +1,4 @@
+import mysql from 'mysql2'
 import { foldRun, parseRunEvent } from '#shared/runs'
 import type { RunEvent } from '#shared/runs'
 import type { ServerEvent, SyncRejection, SyncRequest, SyncResponse } from '#shared/schemas/sync'
@@ -211,14 +212,17 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   let cursor = request.since ?? 0
   const events: ServerEvent[] = []
   if (watched.length) {
-    const rows = await db.select(storedColumns).from(tables.runEvents)
-      .where(and(eq(tables.runEvents.shopId, user.shopId), inArray(tables.runEvents.runId, watched), gt(tables.runEvents.seq, request.since ?? 0)))
-      .orderBy(asc(tables.runEvents.seq))
-    for (const row of rows) {
-      cursor = Math.max(cursor, row.seq)
-      // The tablet's own events come back only when the server added its verdict to them.
-      if (!sentIds.has(row.id) || row.payload.verdict !== undefined) events.push(toServerEvent(row))
-    }
+    const e = tables.runEvents
+    const newer = and(eq(e.shopId, user.shopId), inArray(e.runId, watched), gt(e.seq, request.since ?? 0))
+    // The newest of them, for the cursor; and the rows themselves, but the tablet's own events
+    // only when the server added its verdict to them (not read back at all otherwise, issue 14).
+    const [top] = await db.select({ seq: sql<number | null>`max(${e.seq})` }).from(e).where(newer)
+    cursor = Math.max(cursor, Number(top?.seq ?? 0))
+    const own = [...sentIds].filter((id): id is string => typeof id === 'string')
+    const rows = await db.select(storedColumns).from(e)
+      .where(own.length ? and(newer, or(sql`${e.id} not in (${sql.join(own.map(id => sql`${id}`), sql`, `)})`, sql`json_exists(${e.payload}, '$.verdict')`)) : newer)
+      .orderBy(asc(e.seq))
+    for (const row of rows) events.push(toServerEvent(row))
   }
   return { accepted, rejected, events, cursor }
 }
@@ -260,6 +264,16 @@ function sizeProblem(sizes: Map<string, { events: number, notes: number }>, even
   return null
 }
 
+// Drizzle's builder spends about 20 ms turning 500 rows into one INSERT, as long as MariaDB takes
+// to store them (issue 14); mysql2's own escaping (format) writes the same statement directly.
+// Times as drizzle writes a timestamp column: UTC, milliseconds kept.
+const sqlTime = (iso: string) => new Date(iso).toISOString().slice(0, -1).replace('T', ' ')
+function insertEventsSql(shopId: number, events: RunEvent[]) {
+  const rows = events.map(e => [e.id, shopId, e.runId, e.type, e.actorId, e.deviceId, sqlTime(e.at), JSON.stringify(payloadOf(e))])
+  // These events' rows; a duplicate id changes nothing
+  return mysql.format('insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ? on duplicate key update id = id', [rows])
+}
+
 /** Why a run's new events could not be stored; the message goes back to the tablet. */
 class Unstorable extends Error {}
 
@@ -286,20 +300,40 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
     await tx.transaction(async (sp) => {
       const db = sp as unknown as DB
       if (newRun) await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
-      for (const e of batch) {
+      const rowOf = (e: RunEvent) => ({
+        id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
+        at: new Date(e.at), payload: payloadOf(e),
+      })
+      // The run's rows in one statement, in a savepoint of its own (a round trip per event was
+      // most of the merge's time, issue 14). Only when MariaDB refuses it are the events tried
+      // one by one below, so the one it refuses is named and the others are stored.
+      let together = false
+      if (batch.length > 1) {
         try {
-          await db.transaction(async (one) => {
-            // This event's row; a duplicate id changes nothing
-            await (one as unknown as DB).insert(tables.runEvents).values({
-              id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
-              at: new Date(e.at), payload: payloadOf(e),
-            }).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+          await db.transaction(async (all) => {
+            // These events' rows; a duplicate id changes nothing
+            await (all as unknown as DB).execute(sql.raw(insertEventsSql(user.shopId, batch)))
           })
-          done.push(e)
+          done.push(...batch)
+          together = true
         }
         catch (error) {
           if (transient(error)) throw error
-          rejected.push({ id: e.id, reason: unstorableReason(error) })
+        }
+      }
+      if (!together) {
+        for (const e of batch) {
+          try {
+            await db.transaction(async (one) => {
+              // This event's row; a duplicate id changes nothing
+              await (one as unknown as DB).insert(tables.runEvents).values(rowOf(e)).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+            })
+            done.push(e)
+          }
+          catch (error) {
+            if (transient(error)) throw error
+            rejected.push({ id: e.id, reason: unstorableReason(error) })
+          }
         }
       }
       if (!done.length) return
@@ -400,7 +434,8 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
   const runs = await db.select({ id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId })
     .from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
   const versions = await loadVersions(shopId, [...new Set(runs.map(r => r.procedureVersionId))], db)
-  const rows = await db.select(storedColumns).from(tables.runEvents)
+  // Read once for the fold and the Ledger both (receivedAt is the Ledger's)
+  const rows = await db.select({ ...storedColumns, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
     .where(and(eq(tables.runEvents.shopId, shopId), inArray(tables.runEvents.runId, runIds)))
   const byRun = new Map<string, StoredRow[]>()
   for (const row of rows) (byRun.get(row.runId) ?? byRun.set(row.runId, []).get(row.runId)!).push(row)
@@ -434,5 +469,5 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     }).where(eq(tables.runs.id, run.id))
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
-  await writeRunLedger(db, shopId, folded, arrivedIds)
+  await writeRunLedger(db, shopId, folded, arrivedIds, rows)
 }
