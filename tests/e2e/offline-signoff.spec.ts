@@ -1,5 +1,5 @@
 import { expect, test, type APIRequestContext, type Page } from '@playwright/test'
-import { pressAndHold, signIn, signInForOffline, startProcedure, syncState } from './helpers'
+import { pressAndHold, runReady, signIn, signInForOffline, startProcedure, syncState } from './helpers'
 
 // Issue 11 "Sign-off without the network", in Chromium at 1024×768 with touch: a trainee's
 // guided tool change loses the network before the trainer's sign-off; the trainer signs on the
@@ -15,6 +15,8 @@ async function finishOffline(page: Page, pin: string) {
   page.setDefaultTimeout(8000)
   let signed = 0
   for (let guard = 0; guard < 60; guard++) {
+    // One gesture, one action: the screen takes input once the last step change has settled.
+    await runReady(page)
     const heading = (await page.getByRole('heading', { level: 1 }).textContent())?.trim()
     if (await action.getByRole('button', { name: /Finish the run/ }).isVisible()) {
       await action.getByRole('button', { name: /Finish the run/ }).click()
@@ -158,6 +160,7 @@ test('offline, the Floor shows the run at the tablet\'s own latest step and keep
   await pressAndHold(page, /Hold to acknowledge/)
   await expect(page.getByRole('heading', { level: 1 })).toHaveText('Handle cutters by the shank')
   await pressAndHold(page, /Hold to acknowledge/)
+  await runReady(page)
   await page.getByRole('button', { name: /Done — next step/ }).click()
   await expect(syncState(page)).toContainText('3 waiting')
   await page.getByRole('link', { name: 'Floor', exact: true }).click()
