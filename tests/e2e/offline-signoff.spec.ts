@@ -118,7 +118,7 @@ test('a wrong PIN signed offline flags the run, reaches the Ledger and mails the
   const ownerPage = await owner.newPage()
   await signIn(ownerPage, 'owner')
   await ownerPage.goto('/ledger?kind=signoff-failed')
-  const rows = ownerPage.getByRole('table').getByRole('row').filter({ has: ownerPage.locator(`a[href="/runs/${runId}/record"]`) })
+  const rows = ownerPage.getByRole('table').getByRole('row').filter({ has: ownerPage.locator(`a[href^="/runs/${runId}/record"]`) })
   await expect(rows.filter({ hasText: 'Sign-off failed its check' }).filter({ hasText: 'That PIN is not Teodor Lind\'s.' })).toHaveCount(2)
   const ledger = await (await ownerPage.request.get('/api/ledger?kind=signoff-failed&pageSize=100')).json()
   expect(ledger.rows.filter((r: any) => r.runId === runId)).toHaveLength(2)
