@@ -1,4 +1,4 @@
-import { expect, type Page } from '@playwright/test'
+import { expect, type Locator, type Page } from '@playwright/test'
 
 import { DEMO, DEMO_PASSWORD } from '../demo'
 
@@ -54,6 +54,17 @@ export async function startProcedure(page: Page, machine: string, procedure: Reg
  */
 export async function runReady(page: Page) {
   await expect(page.getByTestId('primary-action-area')).toHaveAttribute('data-ready', 'true')
+}
+
+/**
+ * Presses a button that appears only after an earlier action has been recorded (a photo is
+ * stored on the tablet first, so its "Done" comes later): waits for the button, then for the
+ * screen to settle after that change, so the press is not swallowed by the tap guard.
+ */
+export async function pressWhenSettled(page: Page, button: Locator) {
+  await expect(button).toBeVisible()
+  await runReady(page)
+  await button.click()
 }
 
 export const syncState = (page: Page) => page.getByTestId('sync-state')

@@ -2,7 +2,7 @@ import { readFile } from 'node:fs/promises'
 import { expect, request, test } from '@playwright/test'
 import { parse } from 'csv-parse/sync'
 import { makePng } from '../support/images'
-import { DEMO, DEMO_PASSWORD, runReady, signIn, startProcedure, syncState } from './helpers'
+import { DEMO, DEMO_PASSWORD, pressWhenSettled, runReady, signIn, startProcedure, syncState } from './helpers'
 
 // The Ledger at 1024×768 with touch: an operator's run stores a photo and a reading out of
 // range; the owner finds the entry with the filters, opens the run's record with the photo,
@@ -37,8 +37,7 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
   await op.getByLabel('Take a photo').setInputFiles({ name: 'collet.png', mimeType: 'image/png', buffer: makePng(1200, 900, grey) })
   await expect(op.getByTestId('photo-preview')).toBeVisible()
   await action.getByRole('button', { name: 'Record evidence' }).click()
-  await runReady(op)
-  await action.getByRole('button', { name: /Done — (next|last) step/ }).click()
+  await pressWhenSettled(op, action.getByRole('button', { name: /Done — (next|last) step/ }))
   await expect(op.getByRole('heading', { level: 1 })).toHaveText('Measure the runout')
   // The Bench Router works in inches, so the mm check is typed in inches: 0.005 in = 0.127 mm
   // (1 in = 25.4 mm exactly, NBS Circular 572 addendum), recorded in the step's own mm.
@@ -47,8 +46,7 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
   await action.getByLabel(/why is it acceptable/).fill('Collet nut worn, a new one is on order')
   await runReady(op)
   await action.getByRole('button', { name: 'Record reading' }).click()
-  await runReady(op)
-  await action.getByRole('button', { name: /Done — (next|last) step/ }).click()
+  await pressWhenSettled(op, action.getByRole('button', { name: /Done — (next|last) step/ }))
   await expect(syncState(op)).toHaveText('Online', { timeout: 30_000 })
   // The picture reached the server
   await expect.poll(async () => {
