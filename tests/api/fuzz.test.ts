@@ -252,7 +252,7 @@ describe('bad input never gets a 5xx and never changes the database', () => {
       for (const [name, raw] of cases) {
         perRoute[key] = (perRoute[key] ?? 0) + 1
         tried++
-        const res = await fetch(BASE_URL + path, { method: route.method, headers: { 'cookie': owner, 'accept': 'application/json', 'content-type': 'application/json' }, body: raw })
+        const res = await fetch(BASE_URL + path, { method: route.method, headers: { 'cookie': owner, 'accept': 'application/json', 'content-type': 'application/json' }, body: typeof raw === 'string' ? raw : new Uint8Array(raw) })
         const text = await res.text()
         let json: any
         try { json = JSON.parse(text) }

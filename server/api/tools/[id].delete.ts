@@ -5,9 +5,11 @@ export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, IdParamSchema)
   const user = await requireRole(event, 'owner', 'trainer')
   const current = await findShopTool(user, id)
-  // Remove the cutter, only within the user's shop
-  await useDB().delete(tables.tools)
-    .where(and(eq(tables.tools.id, id), eq(tables.tools.shopId, user.shopId)))
-  await recordAudit(user, 'tool.deleted', 'tool', id, { name: current.name })
+  // Remove the cutter, only within the user's shop, together with its audit line
+  await useDB().transaction(async (tx) => {
+    await tx.delete(tables.tools)
+      .where(and(eq(tables.tools.id, id), eq(tables.tools.shopId, user.shopId)))
+    await recordAudit(tx, user, 'tool.deleted', 'tool', id, { name: current.name })
+  })
   return { ok: true }
 })

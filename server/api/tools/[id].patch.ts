@@ -12,9 +12,11 @@ export default defineEventHandler(async (event) => {
     const message = 'The corner radius cannot be more than half the diameter.'
     throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: `cornerRadiusMm: ${message}`, data: { issues: [{ path: 'cornerRadiusMm', message }] } })
   }
-  // Change the cutter, only within the user's shop
-  await useDB().update(tables.tools).set(body)
-    .where(and(eq(tables.tools.id, id), eq(tables.tools.shopId, user.shopId)))
-  await recordAudit(user, 'tool.changed', 'tool', id, { fields: Object.keys(body) })
+  // Change the cutter, only within the user's shop, together with its audit line
+  await useDB().transaction(async (tx) => {
+    await tx.update(tables.tools).set(body)
+      .where(and(eq(tables.tools.id, id), eq(tables.tools.shopId, user.shopId)))
+    await recordAudit(tx, user, 'tool.changed', 'tool', id, { fields: Object.keys(body) })
+  })
   return findShopTool(user, id)
 })
