@@ -52,7 +52,7 @@ const samples503: string[] = []
 let syncInFlight = 0
 let replaysSent = 0
 let replaysAccepted = 0
-let rejected: { id: string, reason: string }[] = []
+const rejected: { id: string, reason: string }[] = []
 
 function count(kind: 'sync' | 'read', outcome: { status?: number, network?: boolean, timeout?: boolean }) {
   const t = phaseTally(kind)

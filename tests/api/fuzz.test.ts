@@ -78,7 +78,11 @@ const TOP_FIELDS = FIELD_NAMES.filter(n => n !== 'events')
 /** Percent-encoding that also carries lone surrogates (as the bytes a broken client sends). */
 function enc(s: string) {
   try { return encodeURIComponent(s) }
-  catch { return s.split('').map(c => { try { return encodeURIComponent(c) } catch { return '%ED%A0%80' } }).join('') }
+  catch { return s.split('').map(encOne).join('') }
+}
+function encOne(c: string) {
+  try { return encodeURIComponent(c) }
+  catch { return '%ED%A0%80' }
 }
 
 // A query value no schema accepts: every enum, number and id here is one letter-led or out of range.

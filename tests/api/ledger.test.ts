@@ -313,8 +313,8 @@ describe('append-only Ledger (issue 18) and every acknowledgement and sign-off (
     const text = await res.text()
     const [record] = parse(text, { columns: true }) as Record<string, string>[]
     expect(record).toMatchObject({
-      'Person': '\'-2+3+cmd', 'Machine': '\'=cmd|\' /C calc\'!A0', 'Step': '\'+Measure the runout',
-      'Reason': '\'=HYPERLINK("http://example.invalid","look")', 'Reading': '-0.4', 'Unit': 'mm',
+      Person: '\'-2+3+cmd', Machine: '\'=cmd|\' /C calc\'!A0', Step: '\'+Measure the runout',
+      Reason: '\'=HYPERLINK("http://example.invalid","look")', Reading: '-0.4', Unit: 'mm',
     })
     expect(record!.Procedure).toMatch(/^'@SUM A1 cmd \d+$/)
     // The reading is written bare, a number a spreadsheet sums; no cell of the file starts a formula.
