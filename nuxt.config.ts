@@ -16,7 +16,10 @@ export default defineNuxtConfig({
     'nuxt-auth-utils',
     '@vueuse/nuxt',
     '@vite-pwa/nuxt',
+    '@nuxt/eslint',
   ],
+  // npm run lint: the project's code style (single quotes, no semicolons), eslint.config.mjs.
+  eslint: { config: { stylistic: { quotes: 'single', semi: false, indent: 2, commaDangle: 'always-multiline', braceStyle: 'stroustrup', arrowParens: false } } },
   css: ['~/assets/css/main.css'],
   devtools: { enabled: false },
   telemetry: false,

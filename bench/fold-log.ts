@@ -47,4 +47,3 @@ export function longLog(total: number): RunEvent[] {
   // Arrival order scrambled, as after a sync from several tablets.
   return events.map((e, i) => [e, (i * 7919) % events.length] as const).sort((a, b) => a[1] - b[1]).map(([e]) => e)
 }
-

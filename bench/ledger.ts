@@ -209,8 +209,14 @@ await insertMany('ledger_entries', ['shop_id', 'event_id', 'run_id', 'kind', 'ac
 const bigLogin = await fetch(`${BASE}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: bigUser.email, password: 'shopfloor-demo-1' }) })
 const bigCookie = bigLogin.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
 const { readFileSync } = await import('node:fs')
-const serverPid = (() => { try { return readFileSync(process.env.JOGWISE_BENCH_SERVER_PID_FILE || '.data/bench-server.pid', 'utf8').trim() } catch { return '' } })()
-const peakMiB = () => { try { return Number(/VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${serverPid}/status`, 'utf8'))![1]) / 1024 } catch { return Number.NaN } }
+const serverPid = (() => {
+  try { return readFileSync(process.env.JOGWISE_BENCH_SERVER_PID_FILE || '.data/bench-server.pid', 'utf8').trim() }
+  catch { return '' }
+})()
+const peakMiB = () => {
+  try { return Number(/VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${serverPid}/status`, 'utf8'))![1]) / 1024 }
+  catch { return Number.NaN }
+}
 const before = peakMiB()
 const tBig = performance.now()
 const res = await fetch(`${BASE}/api/ledger/export.csv`, { headers: { cookie: bigCookie } })

@@ -11,7 +11,7 @@ import { openSync, readFileSync, writeFileSync } from 'node:fs'
 import { isDeepStrictEqual, promisify } from 'node:util'
 import mysql from 'mysql2/promise'
 import { foldRun, type RunEvent } from '../shared/runs'
-import { api, canon, env, makeTablets, ms, percentile, signIn, sleep, SoakStats, type Tablet } from './soak-kit'
+import { api, canon, env, makeTablets, ms, percentile, signIn, sleep, SoakStats } from './soak-kit'
 
 const TABLETS = Number(env('SOAK_TABLETS', '50'))
 const LOAD_S = Number(env('SOAK_SECONDS', '60'))

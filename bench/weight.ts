@@ -67,7 +67,7 @@ try {
   const version = (await get('/api/procedures') as any[]).find(p => p.slug === 'daily-start-up').current
   const runId = uuidv7()
   const started = { id: uuidv7(), runId, type: 'run.started', at: new Date().toISOString(), actorId: me.id, deviceId: 'bench-weight', procedureVersionId: version.id, machineId: machine.id, mode: 'guided' }
-  const sync = await fetch(`${BASE}/api/sync`, { method: 'POST', headers: { 'content-type': 'application/json', cookie, origin: BASE }, body: JSON.stringify({ deviceId: 'bench-weight', events: [started] }) })
+  const sync = await fetch(`${BASE}/api/sync`, { method: 'POST', headers: { 'content-type': 'application/json', cookie, 'origin': BASE }, body: JSON.stringify({ deviceId: 'bench-weight', events: [started] }) })
   const synced = await sync.json() as any
   if (!sync.ok || synced.accepted.length !== 1) throw new Error(`run start: ${sync.status} ${JSON.stringify(synced)}`)
 

@@ -1,11 +1,16 @@
-import type { UseFetchOptions } from 'nuxt/app'
+import type { AsyncData } from 'nuxt/app'
+import type { NitroFetchRequest, TypedInternalResponse } from 'nitropack/types'
+import type { FetchError } from 'ofetch'
 
 /**
  * useFetch that also tells how old its data is. Offline, the service worker answers reads from
  * its cache and the answer keeps the server's original Date header, so a screen can say
  * "saved copy from 07:42" instead of passing old data off as current.
  */
-export function useCachedFetch<T>(url: string, options: UseFetchOptions<T> & { key: string }) {
+export function useCachedFetch<ReqT extends NitroFetchRequest, ResT = TypedInternalResponse<ReqT, unknown, 'get'>>(
+  url: ReqT,
+  options: { key: string, default: () => NoInfer<ResT> },
+) {
   const servedAt = useState<string | null>(`served-at:${options.key}`, () => null)
   const result = useFetch(url, {
     ...options,
@@ -13,7 +18,7 @@ export function useCachedFetch<T>(url: string, options: UseFetchOptions<T> & { k
       const date = response.headers.get('date')
       servedAt.value = date ? new Date(date).toISOString() : new Date().toISOString()
     },
-  } as UseFetchOptions<T>)
+  }) as AsyncData<ResT, FetchError | undefined>
   const now = useNow({ interval: 30_000 })
   // Older than two minutes means it did not come fresh from the server.
   const savedCopyFrom = computed(() => {

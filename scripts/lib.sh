@@ -54,10 +54,15 @@ wait_for_ready() { # url seconds
 }
 
 # Is the build in .output older than any source file?
+# Every source Nuxt builds from with srcDir '.': its root files and folders (utils/ holds the
+# app's auto-imported helpers); names that do not exist yet are passed over.
+BUILD_SOURCES=(app.vue app.config.ts error.vue nuxt.config.ts pwa.config.ts tailwind.config.ts package-lock.json
+  assets components composables constants layouts middleware modules pages plugins public server shared stores utils)
+
 build_is_stale() { # output-dir
   local out="$1/nitro.json"
   [ -f "$out" ] || return 0
-  [ -n "$(cd "$ROOT" && find app.vue nuxt.config.ts pwa.config.ts tailwind.config.ts package-lock.json assets components composables constants layouts middleware pages plugins public server shared stores -newer "$out" -type f 2>/dev/null | head -n 1)" ]
+  [ -n "$(cd "$ROOT" && find "${BUILD_SOURCES[@]}" -newer "$out" -type f 2>/dev/null | head -n 1)" ]
 }
 
 pid_alive() { [ -f "$1" ] && kill -0 "$(cat "$1")" 2>/dev/null; }

@@ -42,6 +42,12 @@ VITEST_FILTER=() PW_FILTER=()
 if [ ${#FILTER[@]} -gt 0 ]; then VITEST_FILTER=(--passWithNoTests "${FILTER[@]}"); PW_FILTER=(--pass-with-no-tests "${FILTER[@]}"); fi
 has_part() { [[ " $PARTS " == *" $1 "* ]]; }
 if has_part unit; then
+  # Types (vue-tsc over .vue files, server/ and shared/) and the code style come first: either
+  # failing fails the build, like a failing test.
+  log "type-check"
+  npm run --silent typecheck
+  log "lint"
+  npm run --silent lint -- --quiet
   log "unit and component tests"
   npx vitest run --project unit --project nuxt ${VITEST_FILTER[@]+"${VITEST_FILTER[@]}"}
 fi

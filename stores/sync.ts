@@ -212,7 +212,7 @@ export const useSyncStore = defineStore('sync', () => {
         try {
           res = await fetch(`/api/uploads/${uploadId}?runId=${encodeURIComponent(photo.runId)}`, {
             method: 'PUT',
-            headers: { 'content-type': photo.contentType, accept: 'application/json' },
+            headers: { 'content-type': photo.contentType, 'accept': 'application/json' },
             body: photo.blob,
             signal: AbortSignal.timeout(60_000),
           })

@@ -1,4 +1,4 @@
-import { drizzle } from 'drizzle-orm/mysql2'
+import { drizzle, type MySql2Database } from 'drizzle-orm/mysql2'
 import mysql from 'mysql2/promise'
 import * as schema from '../database/schema'
 
@@ -7,7 +7,8 @@ export { and, asc, count, desc, eq, gt, gte, inArray, isNull, isNotNull, lt, lte
 export const tables = schema
 
 let pool: mysql.Pool | undefined
-let db: ReturnType<typeof drizzle<typeof schema>> | undefined
+// The promise pool's database; drizzle's own return type names the callback pool's overload.
+let db: MySql2Database<typeof schema> | undefined
 
 /** One lazy mysql2 pool per server process, configured from NUXT_DB_* runtime config. */
 export function useDB() {

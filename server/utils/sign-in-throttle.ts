@@ -25,7 +25,7 @@ function tooMany(event: H3Event, ms: number, what: string) {
   const seconds = Math.ceil(ms / 1000)
   const minutes = Math.ceil(seconds / 60)
   const at = new Date(Date.now() + seconds * 1000)
-  setResponseHeader(event, 'Retry-After', String(seconds))
+  setResponseHeader(event, 'Retry-After', seconds)
   return createError({
     statusCode: 429,
     statusMessage: 'Too many attempts',
@@ -61,7 +61,10 @@ export function signoffLocked(event: H3Event, waitMs: number, signerName: string
   return tooMany(event, waitMs, `PIN or password tries for ${signerName}`)
 }
 
-async function beginAttempt(key: string, address: string) {
+/** A try under way, or how long the account or address is locked. */
+type Attempt = { waitMs: number } | { succeeded(): Promise<void>, failed(): Promise<void> }
+
+async function beginAttempt(key: string, address: string): Promise<Attempt> {
   const db = useDB()
   const t = tables.signInFailures
   const now = Date.now()

@@ -197,8 +197,11 @@ export type RunEventInput = z.input<typeof RunEventSchema>
 export type RunEventOf<T extends RunEventType> = Extract<RunEvent, { type: T }>
 
 type BaseKey = keyof typeof base | 'type'
-/** The fields that belong to one event type, without the common envelope. */
-export type RunEventPayload<T extends RunEventType> = Omit<RunEventOf<T>, BaseKey>
+/**
+ * The fields that belong to one event type, without the common envelope, as a caller writes
+ * them (the schema's input: optional fields may be left out, makeEvent fills and checks them).
+ */
+export type RunEventPayload<T extends RunEventType> = Omit<Extract<RunEventInput, { type: T }>, BaseKey>
 
 export type RunEventResult = { ok: true, event: RunEvent } | { ok: false, issues: FieldIssue[] }
 

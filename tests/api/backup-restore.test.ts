@@ -92,7 +92,7 @@ beforeAll(async () => {
   expect(started.body.accepted).toHaveLength(1)
   const png = makePng(24, 16, Date.now() & 0xFF)
   const uploadId = uuidv7()
-  const res = await fetch(`${BASE_URL}/api/uploads/${uploadId}?runId=${runId}`, { method: 'PUT', headers: { cookie: operator, 'content-type': 'image/png' }, body: png })
+  const res = await fetch(`${BASE_URL}/api/uploads/${uploadId}?runId=${runId}`, { method: 'PUT', headers: { 'cookie': operator, 'content-type': 'image/png' }, body: png })
   expect(res.status).toBeLessThan(300)
   const [[row]] = await db().query<any[]>('select storage_key as storageKey from uploads where id = ?', [uploadId])
   photo = { key: row.storageKey, sha256: createHash('sha256').update(png).digest('hex') }

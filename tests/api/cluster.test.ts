@@ -17,7 +17,7 @@ const STEPS = Array.from({ length: 12 }, (_, i) => ({ key: `s${i + 1}`, kind: 'i
 const SIGN = { key: 'sign', kind: 'signoff', title: 'Sign off', body: 'Sign the run.', statement: 'The work is done and the machine is safe.' }
 
 async function post(url: string, path: string, cookie: string, body: unknown) {
-  const res = await fetch(url + path, { method: 'POST', headers: { 'content-type': 'application/json', accept: 'application/json', cookie }, body: JSON.stringify(body) })
+  const res = await fetch(url + path, { method: 'POST', headers: { 'content-type': 'application/json', 'accept': 'application/json', cookie }, body: JSON.stringify(body) })
   const text = await res.text()
   return { status: res.status, body: text ? JSON.parse(text) : undefined }
 }
@@ -27,7 +27,7 @@ async function get(url: string, path: string, cookie: string) {
   return { status: res.status, body: text ? JSON.parse(text) : undefined }
 }
 async function login(url: string, email: string, password: string) {
-  return fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', accept: 'application/json' }, body: JSON.stringify({ email, password }) })
+  return fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'accept': 'application/json' }, body: JSON.stringify({ email, password }) })
 }
 
 beforeAll(async () => {

@@ -86,7 +86,7 @@ describe('MariaDB out of reach', () => {
     const runId = uuidv7()
     const syncRes = await fetch(`${url}/api/sync`, {
       method: 'POST',
-      headers: { 'content-type': 'application/json', accept: 'application/json', cookie },
+      headers: { 'content-type': 'application/json', 'accept': 'application/json', cookie },
       body: JSON.stringify({ deviceId: 'db-down-check', events: [{ id: uuidv7(), runId, type: 'note.added', at: new Date().toISOString(), actorId: me.id, deviceId: 'db-down-check', text: 'Written while the database was away.' }] }),
     })
     const sync = { status: syncRes.status, retryAfter: syncRes.headers.get('retry-after'), text: await syncRes.text() }

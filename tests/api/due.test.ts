@@ -113,11 +113,11 @@ describe('GET /api/due', () => {
   it('says ok, due or overdue from the last finished run and the spindle hours since', async () => {
     const [p0, p1, p2, p3, p4, p5] = procs
     // Every 10 days: the window is max(1 day, 10 % of 10 days) = 1 day before the limit.
-    await insertRun(p0!, { startedDaysAgo: 3.1, finishedDaysAgo: 3 })                   // 3 days ago: ok
-    await insertRun(p1!, { startedDaysAgo: 9.6, finishedDaysAgo: 9.5 })                 // 0.5 day left: due
-    await insertRun(p2!, { startedDaysAgo: 12.1, finishedDaysAgo: 12 })                 // 2 days late: overdue
+    await insertRun(p0!, { startedDaysAgo: 3.1, finishedDaysAgo: 3 }) // 3 days ago: ok
+    await insertRun(p1!, { startedDaysAgo: 9.6, finishedDaysAgo: 9.5 }) // 0.5 day left: due
+    await insertRun(p2!, { startedDaysAgo: 12.1, finishedDaysAgo: 12 }) // 2 days late: overdue
     await insertRun(p2!, { startedDaysAgo: 1, status: 'abandoned', finishedDaysAgo: 1 }) // abandoned: does not count
-    await insertRun(p3!, { startedDaysAgo: 1 })                                          // only unfinished: not done yet, machine added today
+    await insertRun(p3!, { startedDaysAgo: 1 }) // only unfinished: not done yet, machine added today
     // Every 10 spindle hours: done 20 days ago; since then 300 + 240 = 540 min = 9 h on this
     // machine (90 %: due), plus 600 min before it was done, which does not count.
     await insertRun(p0!, { startedDaysAgo: 30, finishedDaysAgo: 29.9, spindleMinutes: 600 })

@@ -78,7 +78,11 @@ const TOP_FIELDS = FIELD_NAMES.filter(n => n !== 'events')
 /** Percent-encoding that also carries lone surrogates (as the bytes a broken client sends). */
 function enc(s: string) {
   try { return encodeURIComponent(s) }
-  catch { return s.split('').map(c => { try { return encodeURIComponent(c) } catch { return '%ED%A0%80' } }).join('') }
+  catch { return s.split('').map(encOne).join('') }
+}
+function encOne(c: string) {
+  try { return encodeURIComponent(c) }
+  catch { return '%ED%A0%80' }
 }
 
 // A query value no schema accepts: every enum, number and id here is one letter-led or out of range.
@@ -259,7 +263,7 @@ describe('bad input never gets a 5xx and never changes the database', () => {
       for (const [name, raw] of cases) {
         perRoute[key] = (perRoute[key] ?? 0) + 1
         tried++
-        const res = await fetch(BASE_URL + path, { method: route.method, headers: { 'cookie': owner, 'accept': 'application/json', 'content-type': 'application/json' }, body: raw })
+        const res = await fetch(BASE_URL + path, { method: route.method, headers: { 'cookie': owner, 'accept': 'application/json', 'content-type': 'application/json' }, body: typeof raw === 'string' ? raw : new Uint8Array(raw) })
         const text = await res.text()
         let json: any
         try { json = JSON.parse(text) }

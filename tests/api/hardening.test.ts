@@ -295,7 +295,7 @@ describe('Low: state changes take JSON from our own pages only', () => {
     const form = new URLSearchParams({ name: 'Forged', email, role: 'owner', password: 'forged-password-1' }).toString()
     const crossPort = new URL(BASE_URL)
     crossPort.port = String(Number(crossPort.port) + 1)
-    const attempts = [
+    const attempts: Record<string, string>[] = [
       { 'content-type': 'application/x-www-form-urlencoded', 'origin': crossPort.origin, 'sec-fetch-site': 'same-site' },
       { 'content-type': 'application/x-www-form-urlencoded' },
       { 'content-type': 'text/plain', 'origin': crossPort.origin },

@@ -156,7 +156,7 @@ describe('append-only Ledger (issue 18) and every acknowledgement and sign-off (
     expect(res.status, res.text).toBe(200)
     return res
   }
-  const on = (e: Record<string, unknown>, deviceId: string) => ({ ...e, deviceId })
+  const on = <E extends object>(e: E, deviceId: string) => ({ ...e, deviceId })
   const ledgerRows = async (query: Record<string, string | number>) => (await ledger({ machineId: auditMachine, pageSize: 100, ...query })).body.rows as any[]
 
   beforeAll(async () => {
@@ -306,8 +306,8 @@ describe('append-only Ledger (issue 18) and every acknowledgement and sign-off (
     const text = await res.text()
     const [record] = parse(text, { columns: true }) as Record<string, string>[]
     expect(record).toMatchObject({
-      'Person': '\'-2+3+cmd', 'Machine': '\'=cmd|\' /C calc\'!A0', 'Step': '\'+Measure the runout',
-      'Reason': '\'=HYPERLINK("http://example.invalid","look")', 'Reading': '-0.4', 'Unit': 'mm',
+      Person: '\'-2+3+cmd', Machine: '\'=cmd|\' /C calc\'!A0', Step: '\'+Measure the runout',
+      Reason: '\'=HYPERLINK("http://example.invalid","look")', Reading: '-0.4', Unit: 'mm',
     })
     expect(record!.Procedure).toMatch(/^'@SUM A1 cmd \d+$/)
     // The reading is written bare, a number a spreadsheet sums; no cell of the file starts a formula.
@@ -428,7 +428,8 @@ describe('GET /api/ledger/export.csv', () => {
   })
 
   it('parsed back with csv-parse, equals the table\'s rows for the same filter', async () => {
-    for (const query of [{ machineId }, { machineId, kind: 'override' }, { procedureId, actorId: ids.operator! }]) {
+    const queries: Record<string, string | number>[] = [{ machineId }, { machineId, kind: 'override' }, { procedureId, actorId: ids.operator! }]
+    for (const query of queries) {
       const records = await csvRecords({ ...query, tz: 'UTC' })
       const rows = await tableRows(query)
       expect(rows.length).toBeGreaterThan(0)

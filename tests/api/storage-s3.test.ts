@@ -38,7 +38,7 @@ async function signIn(url: string, email: string, password = DEMO_PASSWORD) {
 }
 
 const putPhoto = (url: string, id: string, runId: string, bytes: Buffer, cookie: string) =>
-  fetch(`${url}/api/uploads/${id}?runId=${runId}`, { method: 'PUT', headers: { 'content-type': 'application/octet-stream', accept: 'application/json', cookie }, body: bytes })
+  fetch(`${url}/api/uploads/${id}?runId=${runId}`, { method: 'PUT', headers: { 'content-type': 'application/octet-stream', 'accept': 'application/json', cookie }, body: new Uint8Array(bytes) })
 
 let folder: string
 let fake: S3rver

@@ -22,8 +22,8 @@ const PROCEDURE = {
 async function put(id: string, runId: string, bytes: Buffer | string, opts: { cookie?: string, contentType?: string, headers?: Record<string, string> } = {}) {
   const res = await fetch(`${BASE_URL}/api/uploads/${id}?runId=${runId}`, {
     method: 'PUT',
-    headers: { 'content-type': opts.contentType ?? 'application/octet-stream', accept: 'application/json', cookie: opts.cookie ?? await as('operator'), ...opts.headers },
-    body: bytes,
+    headers: { 'content-type': opts.contentType ?? 'application/octet-stream', 'accept': 'application/json', 'cookie': opts.cookie ?? await as('operator'), ...opts.headers },
+    body: typeof bytes === 'string' ? bytes : new Uint8Array(bytes),
   })
   const text = await res.text()
   let body: any

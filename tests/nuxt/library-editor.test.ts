@@ -1,6 +1,6 @@
 import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { describe, expect, it } from 'vitest'
-import type { VueWrapper } from '@vue/test-utils'
+import type { DOMWrapper, VueWrapper } from '@vue/test-utils'
 import { ProcedureSchema, SUPPLEMENT_NOTICE } from '#shared/procedures'
 import type { ProcedureStepInput } from '#shared/procedures'
 import LibraryProcedureEditor from '~/components/library/LibraryProcedureEditor.vue'
@@ -19,7 +19,7 @@ const mountEditor = (props: Record<string, unknown> = {}) =>
   mountSuspended(LibraryProcedureEditor, { props: { submitLabel: 'Publish', initial, ...props } })
 
 /** The message a field points at through aria-describedby, i.e. the error shown beside it. */
-function errorBeside(wrapper: VueWrapper, selector: string) {
+function errorBeside(wrapper: { find(selector: string): DOMWrapper<Element> }, selector: string) {
   const input = wrapper.find(selector)
   expect(input.exists(), `no field ${selector}`).toBe(true)
   expect(input.attributes('aria-invalid')).toBe('true')

@@ -18,7 +18,7 @@ describe('MachineForm', () => {
     const lengths: Record<string, string> = { travelXMm: '24', travelYMm: '24', travelZMm: '4', spoilboardNominalMm: '0.75', spoilboardMinMm: '0.5' }
     for (const [k, v] of Object.entries(lengths)) await wrapper.find(`#m-${k}`).setValue(v)
     await wrapper.find('form').trigger('submit')
-    const [value] = wrapper.emitted('submit')![0] as [Record<string, number>]
+    const [value] = wrapper.emitted('submit')![0]!
     expect(value.travelXMm).toBeCloseTo(609.6, 10)
     expect(value.spoilboardNominalMm).toBeCloseTo(19.05, 10)
     expect(value.units).toBe('in')

@@ -108,4 +108,3 @@ describe('one-way programs cut every line the way asked', () => {
     }
   })
 })
-

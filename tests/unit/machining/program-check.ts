@@ -65,7 +65,7 @@ export function rs274Problems(text: string): string[] {
   const { lines } = readProgram(text)
   let motion: number | null = null
   let units = 0
-  let set = { units: false, distance: false, plane: false, feedMode: false }
+  const set = { units: false, distance: false, plane: false, feedMode: false }
   let feed = 0
   let spindleOn = false
   let speed = 0
