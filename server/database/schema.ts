@@ -3,14 +3,15 @@ import {
   boolean, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
 } from 'drizzle-orm/mysql-core'
 import { LEDGER_ENTRY_KINDS } from '../../shared/runs/ledger-kinds'
+import { BOARD_READING_KINDS, DWELL_UNITS, RUN_MODES, RUN_STATUSES, SPINDLE_KINDS, TOOL_KINDS, UNITS } from '../../shared/rules/enums'
+import { ROLES } from '../../shared/types/roles'
+import { STEP_KINDS } from '../../shared/procedures/schema'
 
 // One schema for the whole product. Table and column names are snake_case plurals (STYLE §4);
 // every row that belongs to a shop carries shop_id so each query can be scoped to one shop.
 
-export const ROLES = ['owner', 'trainer', 'operator', 'trainee'] as const
-export const SPINDLE_KINDS = ['trim-router', 'air-spindle', 'water-spindle'] as const
-export const DWELL_UNITS = ['seconds', 'milliseconds'] as const
-export const TOOL_KINDS = ['surfacing', 'straight', 'spiral-up', 'spiral-down', 'compression', 'ball-nose', 'v-bit', 'other'] as const
+// The choices of every enum column are written once in shared/, for this schema and zod alike.
+export { DWELL_UNITS, ROLES, SPINDLE_KINDS, TOOL_KINDS }
 
 const createdAt = () => timestamp('created_at', { fsp: 3 }).notNull().defaultNow()
 const updatedAt = () => timestamp('updated_at', { fsp: 3 }).notNull().defaultNow().onUpdateNow()
@@ -18,7 +19,7 @@ const updatedAt = () => timestamp('updated_at', { fsp: 3 }).notNull().defaultNow
 export const shops = mysqlTable('shops', {
   id: int('id').autoincrement().primaryKey(),
   name: varchar('name', { length: 120 }).notNull(),
-  units: mysqlEnum('units', ['mm', 'in']).notNull().default('mm'),
+  units: mysqlEnum('units', UNITS).notNull().default('mm'),
   createdAt: createdAt(),
 })
 
@@ -31,7 +32,7 @@ export const users = mysqlTable('users', {
   // A short PIN lets a trainer sign a trainee's run on the same tablet without a full sign-in.
   pinHash: varchar('pin_hash', { length: 255 }),
   role: mysqlEnum('role', ROLES).notNull(),
-  units: mysqlEnum('units', ['mm', 'in']),
+  units: mysqlEnum('units', UNITS),
   active: boolean('active').notNull().default(true),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
@@ -48,7 +49,7 @@ export const machines = mysqlTable('machines', {
   travelXMm: double('travel_x_mm').notNull(),
   travelYMm: double('travel_y_mm').notNull(),
   travelZMm: double('travel_z_mm').notNull(),
-  units: mysqlEnum('units', ['mm', 'in']).notNull().default('mm'),
+  units: mysqlEnum('units', UNITS).notNull().default('mm'),
   spindleKind: mysqlEnum('spindle_kind', SPINDLE_KINDS).notNull(),
   hasLengthSensor: boolean('has_length_sensor').notNull().default(false),
   spoilboardMaterial: varchar('spoilboard_material', { length: 60 }).notNull().default('MDF'),
@@ -107,7 +108,7 @@ export const procedureSteps = mysqlTable('procedure_steps', {
   versionId: int('version_id').notNull().references(() => procedureVersions.id),
   position: int('position').notNull(),
   key: varchar('step_key', { length: 60 }).notNull(),
-  kind: mysqlEnum('kind', ['instruction', 'hold', 'check', 'photo', 'planner', 'signoff']).notNull(),
+  kind: mysqlEnum('kind', STEP_KINDS).notNull(),
   title: varchar('title', { length: 160 }).notNull(),
   body: text('body').notNull(),
   guidance: text('guidance'),
@@ -133,8 +134,8 @@ export const runs = mysqlTable('runs', {
   machineId: int('machine_id').notNull().references(() => machines.id),
   procedureVersionId: int('procedure_version_id').notNull().references(() => procedureVersions.id),
   startedBy: int('started_by').notNull().references(() => users.id),
-  mode: mysqlEnum('mode', ['guided', 'solo']).notNull(),
-  status: mysqlEnum('status', ['active', 'finished', 'abandoned', 'withdrawn']).notNull().default('active'),
+  mode: mysqlEnum('mode', RUN_MODES).notNull(),
+  status: mysqlEnum('status', RUN_STATUSES).notNull().default('active'),
   currentStepKey: varchar('current_step_key', { length: 60 }),
   // Spindle time the run recorded (attached plans' cutting time and spindle-time readings),
   // kept by the fold so the due list can count spindle hours per machine.
@@ -177,7 +178,7 @@ export const spoilboardReadings = mysqlTable('spoilboard_readings', {
   machineId: int('machine_id').notNull().references(() => machines.id),
   takenBy: int('taken_by').notNull().references(() => users.id),
   takenAt: timestamp('taken_at', { fsp: 3 }).notNull(),
-  kind: mysqlEnum('kind', ['height', 'thickness']).notNull(),
+  kind: mysqlEnum('kind', BOARD_READING_KINDS).notNull(),
   // Grid of readings in mm, rows front to back, columns left to right.
   grid: json('grid').$type<number[][]>().notNull(),
   spacingXMm: double('spacing_x_mm').notNull(),

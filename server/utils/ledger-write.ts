@@ -1,6 +1,7 @@
 import { ledgerEntriesOf, spindleMinutesOf, type LedgerEntryDraft, type LedgerEntryKind, type RunState } from '#shared/runs'
 import type { ProcedureStep } from '#shared/procedures/schema'
 import { ledgerSummary } from '#shared/schemas/ledger'
+import { keySortedJson } from '#shared/rules/json'
 
 // Appends to ledger_entries what the fold of each run a sync batch touched says, and keeps
 // runs.spindle_minutes current. Called by refoldRuns inside the merge transaction.
@@ -33,14 +34,7 @@ type Row = typeof tables.ledgerEntries.$inferInsert
 const SELF_WRITTEN: readonly LedgerEntryKind[] = ['entry-changed', 'backdated']
 
 // Key-sorted JSON, so a detail read back from the database compares equal to a fresh one.
-function stable(value: unknown): string {
-  if (Array.isArray(value)) return `[${value.map(stable).join(',')}]`
-  if (value !== null && typeof value === 'object') {
-    return `{${Object.entries(value as Record<string, unknown>).filter(([, v]) => v !== undefined)
-      .sort(([a], [b]) => (a < b ? -1 : 1)).map(([k, v]) => `${JSON.stringify(k)}:${stable(v)}`).join(',')}}`
-  }
-  return JSON.stringify(value) ?? 'null'
-}
+const stable = keySortedJson
 
 const keyOf = (eventId: string, kind: string) => `${eventId}:${kind}`
 

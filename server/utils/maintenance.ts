@@ -36,7 +36,7 @@ export async function checkIntervalTargets(user: ShopUser, body: { procedureId?:
     else if (m.retiredAt) issues.push({ path: 'machineId', message: 'That machine is retired.' })
   }
   if (issues.length) {
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: `${issues[0]!.path}: ${issues[0]!.message}`, data: { issues } })
+    throw invalidIssues(issues)
   }
 }
 

@@ -2,7 +2,8 @@ import mysql from 'mysql2'
 import { foldRun, parseRunEvent } from '#shared/runs'
 import type { RunEvent } from '#shared/runs'
 import type { ServerEvent, SyncRejection, SyncRequest, SyncResponse } from '#shared/schemas/sync'
-import { runModeFor } from '#shared/types/roles'
+import { isLeadRole, runModeFor } from '#shared/types/roles'
+import { isBelievableTime, unbelievableTime } from '#shared/rules/clock'
 import type { ShopUser } from './authz'
 import type { FoldedRun } from './ledger-write'
 
@@ -12,9 +13,6 @@ import type { FoldedRun } from './ledger-write'
 // fold refuses (a late event that passed an open hold…) are stored with a flag for the Ledger.
 
 const BASE_KEYS = new Set(['id', 'runId', 'type', 'at', 'actorId', 'deviceId'])
-// MariaDB TIMESTAMP ends in 2038; a tablet clock that far off is wrong in any case.
-const MAX_CLOCK_AHEAD_MS = 24 * 60 * 60 * 1000
-const EARLIEST_EVENT = Date.parse('2020-01-01T00:00:00Z')
 
 interface StoredRow { seq: number, id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, payload: Record<string, unknown>, flag: string | null }
 
@@ -67,8 +65,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       continue
     }
     const t = Date.parse(event.at)
-    if (t > now + MAX_CLOCK_AHEAD_MS || t < EARLIEST_EVENT) {
-      reject(event.id, `Event time ${event.at} is not believable; check the tablet's date and time.`)
+    if (!isBelievableTime(t, now)) {
+      reject(event.id, unbelievableTime('Event time', event.at))
       continue
     }
     candidates.push({ event })
@@ -136,7 +134,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       reject(event.id, why ? `Its run was not accepted: ${why}` : 'The run this event belongs to has not reached the server; send its start first.')
       continue
     }
-    if (event.type === 'hold.overridden' && !['owner', 'trainer'].includes(user.role)) {
+    if (event.type === 'hold.overridden' && !isLeadRole(user.role)) {
       reject(event.id, 'Only a trainer or the owner may override a hold.')
       continue
     }
@@ -154,7 +152,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     }
     else if (event.type === 'signoff.given') {
       const signer = personById.get(event.signerId)
-      if (!signer || !signer.active || !['owner', 'trainer'].includes(signer.role) || signer.role !== event.signerRole) {
+      if (!signer || !signer.active || !isLeadRole(signer.role) || signer.role !== event.signerRole) {
         reject(event.id, 'The person signing must be an active trainer or owner of this shop.')
         continue
       }

@@ -10,6 +10,7 @@ import { toIssues, type Checked, type FieldIssue } from './issues'
 import { fitPlaneOrthogonal, fitPlaneVertical, type VerticalPlane } from './linalg'
 import { minimumZoneFlatness } from './minimum-zone'
 import type { LengthUnit } from './units'
+import { BOARD_READING_KINDS, UNITS } from '../rules/enums'
 
 export const BOARD_GRID_MIN = 2
 export const BOARD_GRID_MAX = 20
@@ -18,8 +19,8 @@ const number = (label: string) => z.number({ error: `${label} must be a number.`
 const positive = (label: string) => number(label).positive({ error: `${label} must be more than 0.` })
 
 export const BoardInputSchema = z.object({
-  units: z.enum(['mm', 'in'], { error: 'Units must be \'mm\' or \'in\'.' }).optional(),
-  kind: z.enum(['height', 'thickness'], { error: 'Kind must be \'height\' (surface heights) or \'thickness\'.' }),
+  units: z.enum(UNITS, { error: 'Units must be \'mm\' or \'in\'.' }).optional(),
+  kind: z.enum(BOARD_READING_KINDS, { error: 'Kind must be \'height\' (surface heights) or \'thickness\'.' }),
   // Cells are checked one by one below, so each bad reading gets its own message.
   grid: z.array(z.array(z.unknown(), { error: 'Each row of readings must be a list of numbers.' }), { error: 'Readings must be a list of rows.' }),
   spacing: z.object({ x: positive('Spacing X'), y: positive('Spacing Y') }, { error: 'Give the spacing as X and Y distances.' }).optional(),

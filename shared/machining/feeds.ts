@@ -4,6 +4,7 @@
 import { z } from 'zod'
 import { toIssues, type Checked } from './issues'
 import { surfaceSpeedUnitFor, type LengthUnit, type SurfaceSpeedUnit } from './units'
+import { UNITS } from '../rules/enums'
 
 function requirePositive(name: string, value: number) {
   if (!Number.isFinite(value) || value <= 0) {
@@ -70,7 +71,7 @@ const positive = (label: string) => z
 
 /** Input of the Feeds screen: give rpm or surface speed, and chip load or feed. */
 export const FeedsInputSchema = z.object({
-  units: z.enum(['mm', 'in'], { error: 'Units must be \'mm\' or \'in\'.' }),
+  units: z.enum(UNITS, { error: 'Units must be \'mm\' or \'in\'.' }),
   diameter: positive('Cutter diameter'),
   flutes: z.number({ error: 'Flutes must be a number.' })
     .int({ error: 'Flutes must be a whole number.' })

@@ -2,6 +2,7 @@
 // request's own units. Every rule gives a message that names the field and the problem.
 import { z } from 'zod'
 import { fromMm, formatLength, type LengthUnit } from './units'
+import { UNITS } from '../rules/enums'
 
 /**
  * Deepest cut per pass as a fraction of the cutter diameter. Common practice, no published
@@ -51,7 +52,7 @@ const number = (label: string) => z.number({ error: `${label} must be a number.`
 const positive = (label: string) => number(label).positive({ error: `${label} must be more than 0.` })
 
 export const SurfacingInputSchema = z.object({
-  units: z.enum(['mm', 'in'], { error: 'Units must be \'mm\' or \'in\'.' }),
+  units: z.enum(UNITS, { error: 'Units must be \'mm\' or \'in\'.' }),
   area: z.object({
     x: positive('Area X'),
     y: positive('Area Y'),

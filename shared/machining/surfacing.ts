@@ -24,6 +24,7 @@ import { moveSeconds, DEFAULT_ACCEL_MM_S2, DEFAULT_RAPID_MM_MIN } from './motion
 import { ceilWithTolerance, SurfacingInputSchema, type SurfacingRequest } from './surfacing-input'
 import { checkTravel, type MachineEnvelope, type TravelReport } from './travel'
 import { chipLoadFromFeed, surfaceSpeedFromRpm } from './feeds'
+import { DWELL_UNITS, type DwellUnit } from '../rules/enums'
 import { surfaceSpeedUnitFor, toMm, type LengthUnit, type SurfaceSpeedUnit } from './units'
 
 export type MoveKind = 'retract' | 'rapid' | 'plunge' | 'cut' | 'step'
@@ -48,8 +49,7 @@ export interface SurfacingPass {
 
 export type Milling = 'climb' | 'conventional'
 /** How this machine's control reads the P word of G4 (NISTIR 6556 says seconds). */
-export type DwellUnit = 'seconds' | 'milliseconds'
-export const DWELL_UNITS = ['seconds', 'milliseconds'] as const
+export { DWELL_UNITS, type DwellUnit }
 /**
  * Default for one-way when none is chosen. Common practice, no published source: on belt- and
  * rack-driven routers with backlash, climb milling can pull the cutter forward into the work.

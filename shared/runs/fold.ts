@@ -2,6 +2,9 @@ import { rangeStatus, type ProcedureStep, type StepKind } from '../procedures/sc
 import { isMeaningfulReason } from '../procedures/text'
 import type { Role } from '../types/roles'
 import { SIGNER_ROLES, type RunEvent, type RunMode, type SignerRole } from './events'
+import { byTimeThenId } from '../rules/order'
+import { keySortedJson } from '../rules/json'
+import { UNDO_RULES } from './undo'
 
 // The state of a run is a pure fold over its event log. The same function runs on the tablet
 // (to draw the Run screen, also offline) and on the server (to flag events during the merge),
@@ -184,22 +187,7 @@ const sortTime = (e: RunEvent) => {
 
 /** Fold order: client time, then id. UUIDv7 ids from one device also sort by creation time. */
 export function compareEvents(a: RunEvent, b: RunEvent): number {
-  const ta = sortTime(a)
-  const tb = sortTime(b)
-  if (ta !== tb) return ta < tb ? -1 : 1
-  return a.id < b.id ? -1 : a.id > b.id ? 1 : 0
-}
-
-// Key-sorted JSON, so two copies of an event compare equal whatever their key order.
-function canonical(value: unknown): string {
-  if (Array.isArray(value)) return `[${value.map(canonical).join(',')}]`
-  if (value !== null && typeof value === 'object') {
-    const entries = Object.entries(value as Record<string, unknown>)
-      .filter(([, v]) => v !== undefined)
-      .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
-    return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonical(v)}`).join(',')}}`
-  }
-  return JSON.stringify(value) ?? 'null'
+  return byTimeThenId(sortTime(a), a.id, sortTime(b), b.id)
 }
 
 interface Slot {
@@ -274,7 +262,7 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
   const extraFlags: { flag: FlaggedEvent, t: number, tie: string }[] = []
   if (clashes) {
     for (const [id, copies] of clashes) {
-      const ranked = copies.map(event => ({ event, t: sortTime(event), tie: canonical(event) }))
+      const ranked = copies.map(event => ({ event, t: sortTime(event), tie: keySortedJson(event) }))
       ranked.sort((a, b) => (a.t !== b.t ? a.t - b.t : a.tie < b.tie ? -1 : a.tie > b.tie ? 1 : 0))
       entries.set(id, { event: ranked[0]!.event, t: ranked[0]!.t, fate: FLAGGED })
       let last = ranked[0]!.tie
@@ -298,7 +286,7 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
     }
     else ordered.push(entry)
   }
-  ordered.sort((a, b) => (a.t !== b.t ? a.t - b.t : a.event.id < b.event.id ? -1 : a.event.id > b.event.id ? 1 : 0))
+  ordered.sort((a, b) => byTimeThenId(a.t, a.event.id, b.t, b.event.id))
 
   // 3. Walk the log.
   const slots: Slot[] = steps.map((step, index) => ({
@@ -654,7 +642,7 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
           flag('undo-of-signoff-refused', 'A sign-off stays on the record for good and cannot be undone.')
           break
         }
-        if (tt === 'run.started' || tt === 'event.undone' || tt === 'run.finished' || tt === 'run.abandoned' || tt === 'run.withdrawn') {
+        if (UNDO_RULES[tt] !== 'undoable') {
           flag('not-undoable', `A ${tt} event cannot be undone.`)
           break
         }

@@ -2,6 +2,7 @@ import { describeRange, type ProcedureStep } from '../procedures/schema'
 import type { RunEvent } from './events'
 import type { EventRef, RunState } from './fold'
 import type { LedgerEntryKind } from './ledger-kinds'
+import { byTimeThenId } from '../rules/order'
 
 export * from './ledger-kinds'
 
@@ -133,7 +134,7 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
       },
     })
   }
-  return out.sort((a, b) => (a.at < b.at ? -1 : a.at > b.at ? 1 : a.eventId < b.eventId ? -1 : a.eventId > b.eventId ? 1 : a.kind < b.kind ? -1 : 1))
+  return out.sort((a, b) => byTimeThenId(a.at, a.eventId, b.at, b.eventId) || (a.kind < b.kind ? -1 : a.kind > b.kind ? 1 : 0))
 }
 
 function actionsOn(s: RunState['steps'][number]): { ref: EventRef, action: string }[] {

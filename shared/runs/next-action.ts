@@ -1,6 +1,7 @@
 import type { ProcedureStep } from '../procedures/schema'
 import type { RunEvent } from './events'
 import type { RunState } from './fold'
+import { isUndoable } from './undo'
 
 // What the Run screen offers as its one primary action. The screen never works out rules
 // itself (STYLE.md): it asks the fold's state what comes next and appends the matching event.
@@ -30,8 +31,6 @@ export interface NextAction {
   lastUndoable: RunEvent | null
 }
 
-const UNDOABLE = new Set<RunEvent['type']>(['step.done', 'hold.acknowledged', 'value.recorded', 'photo.attached', 'plan.attached', 'note.added'])
-
 /**
  * The most recent entry `actorId` may undo: their own latest action if nothing else happened
  * after it, or one of their own notes, whichever is later. Without an actor id, anyone's.
@@ -42,7 +41,7 @@ export function lastUndoable(state: RunState, actorId?: number): RunEvent | null
   for (let i = state.applied.length - 1; i >= 0; i--) {
     const e = state.applied[i]!
     if (actorId !== undefined && e.actorId !== actorId) continue
-    if (!UNDOABLE.has(e.type)) continue
+    if (!isUndoable(e.type)) continue
     if (e.type === 'note.added' ? liveNotes.has(e.id) : e.id === state.undoTopId) return e
   }
   return null

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { MAX_CLOCK_AHEAD_MS } from '../rules/clock'
 
 // A trainer's signature on a tablet, also offline. The tablet puts the signer's PIN or
 // password together with what it signs (run, step, signer, the very event, a one-time nonce and
@@ -106,6 +107,6 @@ export function bindingProblem(claim: SealClaim, target: SealTarget, now: number
   const made = Date.parse(claim.time)
   if (Math.abs(made - Date.parse(target.at)) > SEAL_EVENT_SKEW_MS) return 'The signature was not made together with this sign-off.'
   if (now - made > SEAL_LIFETIME_MS) return `The signature expired: it must reach the server within ${SEAL_LIFETIME_MS / 3_600_000} hours; sign again.`
-  if (made - now > SEAL_EVENT_SKEW_MS + 24 * 60 * 60 * 1000) return 'The signature\'s time is not believable; check the tablet\'s date and time.'
+  if (made - now > SEAL_EVENT_SKEW_MS + MAX_CLOCK_AHEAD_MS) return 'The signature\'s time is not believable; check the tablet\'s date and time.'
   return null
 }

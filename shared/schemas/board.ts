@@ -3,6 +3,8 @@
 import { z } from 'zod'
 import { analyzeBoard, BOARD_GRID_MAX, BOARD_GRID_MIN, type BoardAnalysis } from '../machining/board'
 import { formatNumber, fromMm, MM_PER_INCH, type LengthUnit } from '../machining/units'
+import { BOARD_READING_KINDS, UNITS } from '../rules/enums'
+import { isBelievableTime, unbelievableTime } from '../rules/clock'
 
 export { BOARD_GRID_MAX, BOARD_GRID_MIN }
 
@@ -15,17 +17,14 @@ const LIMITS_MM = { height: 500, thickness: 200, spacing: 5000, facedDepth: 25 }
 const MIN_MM = { spacing: 1, facedDepth: 0.01 } as const
 /** The smallest depth a facing takes when the board is already flat (common practice, no published source). */
 export const MIN_FACING_MM = 0.25
-// A reading dated more than a day ahead comes from a wrong tablet clock (same rule as run events).
-const MAX_CLOCK_AHEAD_MS = 24 * 60 * 60 * 1000
-const EARLIEST_READING = Date.parse('2020-01-01T00:00:00Z')
 
 const number = (label: string) => z.number({ error: `${label} must be a number.` })
   .refine(Number.isFinite, { error: `${label} must be a number.` })
 const positive = (label: string) => number(label).refine(v => v > 0, { error: `${label} must be more than 0.` })
 
 const fields = {
-  kind: z.enum(['height', 'thickness'], { error: 'Kind must be \'height\' (surface heights) or \'thickness\'.' }),
-  units: z.enum(['mm', 'in'], { error: 'Units must be \'mm\' or \'in\'.' }),
+  kind: z.enum(BOARD_READING_KINDS, { error: 'Kind must be \'height\' (surface heights) or \'thickness\'.' }),
+  units: z.enum(UNITS, { error: 'Units must be \'mm\' or \'in\'.' }),
   // Cells are checked one by one, so each bad reading gets its own path and message.
   grid: z.array(z.array(z.unknown(), { error: 'Each row of readings must be a list of numbers.' }), { error: 'Readings must be a list of rows.' })
     .superRefine(checkGridShape),
@@ -82,7 +81,7 @@ function checkRanges(v: Fields, ctx: z.RefinementCtx) {
   }
   if (v.takenAt) {
     const t = Date.parse(v.takenAt)
-    if (t > Date.now() + MAX_CLOCK_AHEAD_MS || t < EARLIEST_READING) issue(['takenAt'], `Time taken ${v.takenAt} is not believable; check the tablet's date and time.`)
+    if (!isBelievableTime(t, Date.now())) issue(['takenAt'], unbelievableTime('Time taken', v.takenAt))
   }
 }
 

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { MAX_ID } from './input'
 import { LEDGER_ENTRY_KINDS, type LedgerEntryKind } from '../runs/ledger-kinds'
+import { RUN_STATUSES } from '../rules/enums'
 
 // Filters of the Ledger (table, CSV export and run list), one copy for the screen and the API.
 
@@ -74,7 +75,7 @@ export type LedgerQuery = z.output<typeof LedgerQuerySchema>
 export const LedgerRunsQuerySchema = z.object({
   // A run "of a kind" has at least one Ledger entry of that kind, so the run list can follow the table.
   kind: z.enum(LEDGER_ENTRY_KINDS, { error: `kind must be one of ${LEDGER_ENTRY_KINDS.join(', ')}.` }).optional(),
-  status: z.enum(['active', 'finished', 'abandoned', 'withdrawn'], { error: 'status must be active, finished, abandoned or withdrawn.' }).optional(),
+  status: z.enum(RUN_STATUSES, { error: 'status must be active, finished, abandoned or withdrawn.' }).optional(),
   ...filterShape,
   ...page,
 }).strict().refine(fromBeforeTo, fromBeforeToIssue)

@@ -1,9 +1,7 @@
 import { z } from 'zod'
+import { DWELL_UNITS, SPINDLE_KINDS, UNITS } from '../rules/enums'
 
-export const SPINDLE_KINDS = ['trim-router', 'air-spindle', 'water-spindle'] as const
-// How the control reads the P word of G4: seconds as NIST RS274/NGC (NISTIR 6556) says, or
-// milliseconds as some controls do.
-export const DWELL_UNITS = ['seconds', 'milliseconds'] as const
+export { DWELL_UNITS, SPINDLE_KINDS }
 export const DWELL_UNIT_LABELS: Record<typeof DWELL_UNITS[number], string> = {
   seconds: 'G4 P in seconds (RS274/NGC)',
   milliseconds: 'G4 P in milliseconds',
@@ -27,7 +25,7 @@ const base = z.object({
   travelXMm: mm('X travel', 10_000),
   travelYMm: mm('Y travel', 10_000),
   travelZMm: mm('Z travel', 1_000),
-  units: z.enum(['mm', 'in'], { error: 'Units must be mm or in.' }),
+  units: z.enum(UNITS, { error: 'Units must be mm or in.' }),
   spindleKind: z.enum(SPINDLE_KINDS, { error: 'Pick the spindle kind.' }),
   hasLengthSensor: z.boolean({ error: 'Say whether the machine has a tool-length sensor.' }),
   spoilboardMaterial: z.string().trim().min(1, 'Enter the spoilboard material.').max(60, 'Keep the material under 60 characters.'),

@@ -3,8 +3,9 @@
 import { z } from 'zod'
 import { MAX_RPM, MIN_RPM } from '../machining/surfacing-input'
 
-export const TOOL_KINDS = ['surfacing', 'straight', 'spiral-up', 'spiral-down', 'compression', 'ball-nose', 'v-bit', 'other'] as const
-export type ToolKind = typeof TOOL_KINDS[number]
+import { TOOL_KINDS, type ToolKind } from '../rules/enums'
+
+export { TOOL_KINDS, type ToolKind }
 export const TOOL_KIND_LABELS: Record<ToolKind, string> = {
   'surfacing': 'Surfacing cutter',
   'straight': 'Straight bit',

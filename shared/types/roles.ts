@@ -20,3 +20,7 @@ export function runModeFor(role: Role, qualified: boolean): 'guided' | 'solo' {
   if (role === 'operator') return qualified ? 'solo' : 'guided'
   return 'solo'
 }
+
+/** Does this role lead (write procedures, override holds, sign off, read the Ledger)? */
+export const isLeadRole = (role: string | null | undefined): role is 'owner' | 'trainer' =>
+  role === 'owner' || role === 'trainer'

@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
     const inv = invite!
     // Has the address become someone's sign-in since the invite was sent?
     const [taken] = await tx.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, inv.email)).limit(1)
-    if (taken) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Someone already signs in with this e-mail address. Sign in instead, or ask the owner.' })
+    if (taken) throw conflict('Someone already signs in with this e-mail address. Sign in instead, or ask the owner.')
     const [{ id }] = await tx.insert(tables.users).values({
       shopId: inv.shopId, email: inv.email, name: body.name, role: inv.role, passwordHash,
     }).$returningId() as [{ id: number }]

@@ -6,11 +6,11 @@ export default defineEventHandler(async (event) => {
   const owner = await requireRole(event, 'owner')
   const body = await readValid(event, InviteCreateSchema)
   const db = useDB()
-  const conflict = (message: string) => createError({ statusCode: 409, statusMessage: 'Conflict', message: `email: ${message}`, data: { issues: [{ path: 'email', message }] } })
+  const taken409 = (message: string) => conflict(`email: ${message}`, [{ path: 'email', message }])
 
   // Is the e-mail address already someone's sign-in, and in which shop?
   const [taken] = await db.select({ shopId: tables.users.shopId }).from(tables.users).where(eq(tables.users.email, body.email)).limit(1)
-  if (taken?.shopId === owner.shopId) throw conflict('Someone in your crew already signs in with that e-mail address.')
+  if (taken?.shopId === owner.shopId) throw taken409('Someone in your crew already signs in with that e-mail address.')
   // Another shop's address gets the same answer as a new one (an owner must not learn who uses
   // Jogwise elsewhere); its mail tells the address's owner instead, without a link.
   const elsewhere = !!taken
@@ -19,7 +19,7 @@ export default defineEventHandler(async (event) => {
     eq(tables.invites.shopId, owner.shopId), eq(tables.invites.email, body.email),
     isNull(tables.invites.acceptedAt), isNull(tables.invites.revokedAt), gt(tables.invites.expiresAt, new Date()),
   )).limit(1)
-  if (pending) throw conflict('That address already has a pending invite. Withdraw it first to send a new one.')
+  if (pending) throw taken409('That address already has a pending invite. Withdraw it first to send a new one.')
 
   const { token, hash } = newInviteToken()
   const expiresAt = new Date(Date.now() + mailSettings().inviteTtlHours * 3600_000)

@@ -1,11 +1,12 @@
 import { Readable } from 'node:stream'
 import { stringify } from 'csv-stringify'
 import { LedgerExportSchema } from '#shared/schemas/ledger'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 // The whole filtered Ledger as CSV (csv-stringify) for people (columns: ledgerCsvColumns), streamed: rows are read in keyset batches
 // and written as the client takes them, so a shop with 200,000 entries never sits in memory.
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   const { tz, ...filter } = queryValid(event, LedgerExportSchema)
   // The local-time column uses the browser's zone (the screen sends it), else the server's.
   const columns = ledgerCsvColumns(tz ?? Intl.DateTimeFormat().resolvedOptions().timeZone)

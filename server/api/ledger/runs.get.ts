@@ -1,9 +1,10 @@
 import { LedgerRunsQuerySchema } from '#shared/schemas/ledger'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 // The Ledger's run list: every run of the shop (newest first) with who, machine, procedure and
 // how many overrides, photos and sign-offs it holds; each links to its record (timeline).
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   const q = queryValid(event, LedgerRunsQuerySchema)
   const r = tables.runs
   const where = [eq(r.shopId, user.shopId)]

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const nominal = body.spoilboardNominalMm ?? current.spoilboardNominalMm
   const min = body.spoilboardMinMm ?? current.spoilboardMinMm
   if (min >= nominal) {
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'spoilboardMinMm: the minimum thickness must be less than the nominal thickness.', data: { issues: [{ path: 'spoilboardMinMm', message: 'The minimum thickness must be less than the nominal thickness.' }] } })
+    throw invalidInput('spoilboardMinMm', 'The minimum thickness must be less than the nominal thickness.')
   }
   // Update the machine, only within the owner's shop
   await withWriteRetry(() => useDB().transaction(async (tx) => {

@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const everyDays = body.everyDays !== undefined ? body.everyDays : current.everyDays
   const everySpindleHours = body.everySpindleHours !== undefined ? body.everySpindleHours : current.everySpindleHours
   if (everyDays == null && everySpindleHours == null) {
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'everyDays: give a number of days, of spindle hours, or both.', data: { issues: [{ path: 'everyDays', message: 'Give a number of days, of spindle hours, or both.' }] } })
+    throw invalidInput('everyDays', 'Give a number of days, of spindle hours, or both.')
   }
   await checkIntervalTargets(owner, body)
   // Change the interval, only within the owner's shop

@@ -29,7 +29,7 @@ export default defineEventHandler(async (event) => {
   const result = planSurfacing(upgradeStoredInput(row.input), machine ?? {})
   if (!result.ok) {
     // Only if the planner's rules grew stricter since the plan was stored.
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This stored plan no longer passes the planner\'s checks; plan it again.', data: { issues: result.issues } })
+    throw conflict('This stored plan no longer passes the planner\'s checks; plan it again.', result.issues)
   }
   return { ...row, gcode: surfacingGcode(result.plan) }
 })

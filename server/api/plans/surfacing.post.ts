@@ -9,9 +9,7 @@ export default defineEventHandler(async (event) => {
   const machine = body.machineId ? await findShopMachine(user, body.machineId) : null
   if (body.runId) {
     // The run, only in this shop
-    const [run] = await useDB().select({ id: tables.runs.id }).from(tables.runs)
-      .where(and(eq(tables.runs.id, body.runId), eq(tables.runs.shopId, user.shopId))).limit(1)
-    if (!run) throw notFound('run')
+    await findShopRun(user, body.runId)
   }
   // A cutter from the shop's list brings its rated speed and name: the list is the authority.
   const tool = body.toolId ? await findShopTool(user, body.toolId) : null
@@ -25,13 +23,7 @@ export default defineEventHandler(async (event) => {
       }
     : {})
   if (!result.ok) {
-    const first = result.issues[0]!
-    throw createError({
-      statusCode: 400,
-      statusMessage: 'Invalid input',
-      message: `${first.path}: ${first.message}`,
-      data: { issues: result.issues },
-    })
+    throw invalidIssues(result.issues)
   }
   const summary = summarizeSurfacing(result.plan)
   const { machineId, runId, ...input } = planned

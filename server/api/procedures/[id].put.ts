@@ -1,13 +1,14 @@
 import { IdParamSchema } from '#shared/schemas/user'
 import { ProcedurePublishSchema } from '#shared/schemas/procedure'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 // Editing publishes a new version; the old one stays exactly as runs followed it.
 export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, IdParamSchema)
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   const existing = await findShopProcedure(user, id)
   if (existing.retiredAt) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This procedure is retired; bring it back before publishing a new version.' })
+    throw conflict('This procedure is retired; bring it back before publishing a new version.')
   }
   const { procedure, changeNote } = await readValid(event, ProcedurePublishSchema)
   const result = await withWriteRetry(() => useDB().transaction(async (tx) => {

@@ -1,8 +1,9 @@
 import { ProcedurePublishSchema } from '#shared/schemas/procedure'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 // A new procedure, published as version 1.
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   const { procedure, changeNote } = await readValid(event, ProcedurePublishSchema)
   const db = useDB()
   const base = procedure.title.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'procedure'

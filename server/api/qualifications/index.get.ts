@@ -1,8 +1,10 @@
+import { isLeadRole } from '#shared/types/roles'
+
 // Who may run which procedure unsupervised. Leads see everyone's; others see their own, which
 // is what their tablet needs to choose guided or solo mode, also offline.
 export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
-  const lead = user.role === 'owner' || user.role === 'trainer'
+  const lead = isLeadRole(user.role)
   // Qualifications in this shop (only the person's own unless a lead)
   return useDB().select({ userId: tables.qualifications.userId, procedureId: tables.qualifications.procedureId, createdAt: tables.qualifications.createdAt })
     .from(tables.qualifications)

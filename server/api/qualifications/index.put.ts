@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   if (!person) throw notFound('person')
   await findShopProcedure(owner, body.procedureId)
   if (body.qualified && person.role === 'trainee') {
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'userId: a trainee always runs guided; change their role to operator first.', data: { issues: [{ path: 'userId', message: 'A trainee always runs guided; change their role to operator first.' }] } })
+    throw invalidInput('userId', 'A trainee always runs guided; change their role to operator first.')
   }
   await withWriteRetry(() => db.transaction(async (tx) => {
     if (body.qualified) {

@@ -9,8 +9,7 @@ export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
   const db = useDB()
   // The run, only in this shop
-  const [run] = await db.select().from(tables.runs).where(and(eq(tables.runs.id, id), eq(tables.runs.shopId, user.shopId))).limit(1)
-  if (!run) throw notFound('run')
+  const run = await findShopRun(user, id)
   const version = (await loadVersions(user.shopId, [run.procedureVersionId])).get(run.procedureVersionId)
   // The run's events in the order the server stored them
   const rows = await db.select().from(tables.runEvents).where(and(eq(tables.runEvents.runId, id), eq(tables.runEvents.shopId, user.shopId))).orderBy(asc(tables.runEvents.seq))

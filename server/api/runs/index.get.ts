@@ -1,8 +1,9 @@
 import { z } from 'zod'
 import { MAX_ID } from '#shared/schemas/input'
+import { RUN_STATUSES } from '#shared/rules/enums'
 
 const QuerySchema = z.object({
-  status: z.enum(['active', 'finished', 'abandoned', 'withdrawn', 'all'], { error: 'status must be active, finished, abandoned, withdrawn or all.' }).default('active'),
+  status: z.enum([...RUN_STATUSES, 'all'], { error: 'status must be active, finished, abandoned, withdrawn or all.' }).default('active'),
   machineId: z.coerce.number({ error: 'machineId must be a number.' }).int().positive('machineId must be a positive number.').max(MAX_ID, 'machineId is not a known id.').optional(),
   limit: z.coerce.number({ error: 'limit must be a number.' }).int().min(1, 'limit must be at least 1.').max(200, 'limit must be at most 200.').default(50),
 })

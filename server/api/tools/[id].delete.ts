@@ -1,9 +1,10 @@
 import { IdParamSchema } from '#shared/schemas/user'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 // Plans keep the cutter's name and sizes in their own input, so removing it loses no record.
 export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, IdParamSchema)
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   const current = await findShopTool(user, id)
   // Remove the cutter, only within the user's shop, with its audit line in the same transaction
   await withWriteRetry(() => useDB().transaction(async (tx) => {

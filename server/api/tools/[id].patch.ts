@@ -1,16 +1,17 @@
 import { ToolPatchSchema } from '#shared/schemas/tool'
 import { IdParamSchema } from '#shared/schemas/user'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, IdParamSchema)
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   // Another shop's cutter is 404 before its body is read.
   const current = await findShopTool(user, id)
   const body = await readValid(event, ToolPatchSchema)
   const diameter = body.diameterMm ?? current.diameterMm
   if ((body.cornerRadiusMm ?? current.cornerRadiusMm) > diameter / 2 + 1e-9) {
     const message = 'The corner radius cannot be more than half the diameter.'
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: `cornerRadiusMm: ${message}`, data: { issues: [{ path: 'cornerRadiusMm', message }] } })
+    throw invalidInput('cornerRadiusMm', message)
   }
   // Change the cutter, only within the user's shop, with its audit line in the same transaction
   await withWriteRetry(() => useDB().transaction(async (tx) => {

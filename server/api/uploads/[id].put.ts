@@ -17,14 +17,12 @@ export default defineEventHandler(async (event) => {
   const { runId } = queryValid(event, QuerySchema)
   const db = useDB()
   // The run, only in this shop
-  const [run] = await db.select({ id: tables.runs.id }).from(tables.runs)
-    .where(and(eq(tables.runs.id, runId), eq(tables.runs.shopId, user.shopId))).limit(1)
-  if (!run) throw notFound('run')
+  await findShopRun(user, runId)
   refusePathNames(event)
 
   const body = await readRawBody(event, false)
   if (!body?.length) {
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'The photo is empty: send the image bytes as the request body.', data: { issues: [{ path: '', message: 'The photo is empty.' }] } })
+    throw invalidInput('', 'The photo is empty: send the image bytes as the request body.')
   }
   if (body.length > MAX_PHOTO_BYTES) {
     throw createError({ statusCode: 413, statusMessage: 'Payload too large', message: `A photo may be at most ${MAX_PHOTO_BYTES / 1024 / 1024} MB; this one is ${(body.length / 1024 / 1024).toFixed(1)} MB.` })
@@ -66,7 +64,7 @@ function sameUpload(row: { id: string, shopId: number, contentType: string, byte
   // Another shop's id is not revealed to exist.
   if (row.shopId !== shopId) throw notFound('upload')
   if (row.sha256 !== sha256) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This upload id already holds a different photo; take the photo again to give it a new id.' })
+    throw conflict('This upload id already holds a different photo; take the photo again to give it a new id.')
   }
   return stored(row)
 }
@@ -94,6 +92,6 @@ function refusePathNames(event: H3Event) {
     .filter(n => /[/\\\0]/.test(n.value) || n.value === '.' || n.value === '..')
     .map(n => ({ path: n.path, message: `The file name ${JSON.stringify(n.value)} has folder parts; a photo name may not contain / or \\ (the server names every photo itself).` }))
   if (issues.length) {
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: issues[0]!.message, data: { issues } })
+    throw invalidIssues(issues)
   }
 }

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
     .where(and(eq(tables.users.id, id), eq(tables.users.shopId, owner.shopId))).limit(1)
   if (!target) throw notFound('person')
   if (target.id === owner.id && ((body.role && body.role !== 'owner') || body.active === false)) {
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: 'role: you cannot remove your own owner role or deactivate yourself.', data: { issues: [{ path: 'role', message: 'You cannot remove your own owner role or deactivate yourself.' }] } })
+    throw invalidInput('role', 'You cannot remove your own owner role or deactivate yourself.')
   }
   const changes: Partial<typeof tables.users.$inferInsert> = {}
   if (body.name !== undefined) changes.name = body.name

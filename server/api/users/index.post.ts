@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const [taken] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, body.email)).limit(1)
   if (taken) {
     const message = 'That e-mail address cannot be used for a new sign-in. Use another address, or send an invite instead.'
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `email: ${message}`, data: { issues: [{ path: 'email', message }] } })
+    throw conflict(`email: ${message}`, [{ path: 'email', message }])
   }
   const passwordHash = await hashPassword(body.password)
   const pinHash = body.pin ? await hashPassword(body.pin) : null

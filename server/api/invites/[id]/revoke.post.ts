@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
     .where(and(eq(tables.invites.id, id), eq(tables.invites.shopId, owner.shopId))).limit(1)
   if (!row) throw notFound('invite')
   if (row.acceptedAt) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This invite was already accepted; deactivate the person on the Crew screen instead.' })
+    throw conflict('This invite was already accepted; deactivate the person on the Crew screen instead.')
   }
   if (!row.revokedAt) {
     // Stamp revoked_at unless it was accepted meanwhile

@@ -1,10 +1,6 @@
 import { IdParamSchema } from '#shared/schemas/user'
 import { ReadingBodySchema, readingToMm } from '#shared/schemas/board'
 
-function invalidField(path: string, message: string) {
-  return createError({ statusCode: 400, statusMessage: 'Invalid input', message: `${path}: ${message}`, data: { issues: [{ path, message }] } })
-}
-
 // Every role logs readings: trainees take them as part of their guided work, and each reading
 // records who took it, so the owner sees whose numbers they are.
 export default defineEventHandler(async (event) => {
@@ -14,18 +10,17 @@ export default defineEventHandler(async (event) => {
   const machine = await findShopMachine(user, id)
   const body = await readValid(event, ReadingBodySchema)
   if (body.machineId !== undefined && body.machineId !== id) {
-    throw invalidField('machineId', `The body names machine ${body.machineId} but the address names machine ${id}.`)
+    throw invalidInput('machineId', `The body names machine ${body.machineId} but the address names machine ${id}.`)
   }
   if (machine.retiredAt) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${machine.name} is retired; bring it back before logging readings.` })
+    throw conflict(`${machine.name} is retired; bring it back before logging readings.`)
   }
   const reading = readingToMm(body)
   if (reading.runId) {
     // The run, only within the user's shop
-    const [run] = await useDB().select({ machineId: tables.runs.machineId }).from(tables.runs)
-      .where(and(eq(tables.runs.id, reading.runId), eq(tables.runs.shopId, user.shopId))).limit(1)
-    if (!run) throw invalidField('runId', 'No such run in this shop.')
-    if (run.machineId !== id) throw invalidField('runId', 'That run was on another machine.')
+    const run = await shopRunOrNull(user, reading.runId)
+    if (!run) throw invalidInput('runId', 'No such run in this shop.')
+    if (run.machineId !== id) throw invalidInput('runId', 'That run was on another machine.')
   }
   // A new reading on this machine, taken by the signed-in person
   const readingId = await withWriteRetry(() => useDB().transaction(async (tx) => {

@@ -1,9 +1,10 @@
 import { IdParamSchema } from '#shared/schemas/user'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 // Retiring hides a procedure from the Library; its versions and runs stay on record.
 export default defineEventHandler(async (event) => {
   const { id } = paramsValid(event, IdParamSchema)
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   await findShopProcedure(user, id)
   // Mark it retired, only in this shop
   await useDB().transaction(async (tx) => {

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { LEDGER_KIND_LABELS, ledgerSummary } from '#shared/schemas/ledger'
+import { isLeadRole } from '#shared/types/roles'
 
 const ParamsSchema = z.object({ id: z.uuid() })
 
@@ -11,13 +12,12 @@ export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
   const db = useDB()
   // The run, only in this shop
-  const [run] = await db.select({ id: tables.runs.id }).from(tables.runs).where(and(eq(tables.runs.id, id), eq(tables.runs.shopId, user.shopId))).limit(1)
-  if (!run) throw notFound('run')
+  await findShopRun(user, id)
   // Arrival time of each of the run's events
   const events = await db.select({ id: tables.runEvents.id, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
     .where(and(eq(tables.runEvents.runId, id), eq(tables.runEvents.shopId, user.shopId)))
   const received = Object.fromEntries(events.map(e => [e.id, e.receivedAt.toISOString()]))
-  if (!['owner', 'trainer'].includes(user.role)) return { received, entries: null }
+  if (!isLeadRole(user.role)) return { received, entries: null }
   const l = tables.ledgerEntries
   // The run's Ledger entries, oldest first, with the person's name
   const rows = await db.select({
