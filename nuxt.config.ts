@@ -22,6 +22,8 @@ export default defineNuxtConfig({
   eslint: { config: { stylistic: { quotes: 'single', semi: false, indent: 2, commaDangle: 'always-multiline', braceStyle: 'stroustrup', arrowParens: false } } },
   css: ['~/assets/css/main.css'],
   devtools: { enabled: false },
+  // npm run typecheck also checks the TypeScript programs the shell scripts run.
+  typescript: { nodeTsConfig: { include: ['../scripts/**/*.ts'] } },
   telemetry: false,
   imports: { dirs: ['stores'] },
   // Folder names group components; the file name alone is the tag (<MachineTile>, <TheTopBar>).

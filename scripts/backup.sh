@@ -11,9 +11,9 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$ROOT"
 
 DB_HOST="${NUXT_DB_HOST:-127.0.0.1}"
-DB_PORT="${NUXT_DB_PORT:-3417}"
-DB_USER="${NUXT_DB_USER:-jogwise}"
-DB_PASSWORD="${NUXT_DB_PASSWORD:-jogwise-local}"
+DB_PORT="${NUXT_DB_PORT:-$JOGWISE_DB_PORT}"
+DB_USER="${NUXT_DB_USER:-$JOGWISE_DB_USER}"
+DB_PASSWORD="${NUXT_DB_PASSWORD:-$JOGWISE_DB_PASSWORD}"
 DB_NAME="${NUXT_DB_NAME:-jogwise}"
 UPLOADS_DIR="${NUXT_UPLOADS_DIR:-$DATA_DIR/uploads}"
 OUT_DIR="${JOGWISE_BACKUP_DIR:-$DATA_DIR/backups}"
@@ -58,16 +58,7 @@ commit="$(git -C "$ROOT" rev-parse --short HEAD 2>/dev/null || echo unknown)"
 awk 'match($0, /^INSERT INTO `[^`]+`/) { t = substr($0, 14, RLENGTH - 14); n[t]++ }
      match($0, /^CREATE TABLE `[^`]+`/) { t = substr($0, 15, RLENGTH - 15); if (!(t in n)) n[t] = 0 }
      END { for (t in n) print t, n[t] }' "$work/database.sql" | sort > "$work/counts.txt"
-node -e '
-  const fs = require("fs")
-  const [dir, db, version, commit] = process.argv.slice(1)
-  const tables = Object.fromEntries(fs.readFileSync(dir + "/counts.txt", "utf8").trim().split("\n").filter(Boolean).map(l => { const [t, n] = l.split(" "); return [t, Number(n)] }))
-  const sums = fs.readFileSync(dir + "/uploads.sha256", "utf8").trim().split("\n").filter(Boolean)
-  let bytes = 0
-  for (const line of sums) bytes += fs.statSync(dir + "/uploads/" + line.slice(66)).size
-  const manifest = { format: "jogwise-backup", formatVersion: 1, createdAt: new Date().toISOString(), app: { name: "jogwise", version, commit }, database: { name: db, tables }, uploads: { files: sums.length, bytes } }
-  fs.writeFileSync(dir + "/manifest.json", JSON.stringify(manifest, null, 2) + "\n")
-' "$work" "$DB_NAME" "$app_version" "$commit" || die "writing the manifest failed"
+summary="$(node --import tsx scripts/backup-manifest.ts write "$work" "$DB_NAME" "$app_version" "$commit")" || die "writing the manifest failed"
 rm -f "$work/counts.txt" "$work/dump.err"
 
 stamp="$(date -u +%Y%m%dT%H%M%S)Z"
@@ -78,8 +69,5 @@ while [ -e "$file" ]; do n=$((n + 1)); file="$OUT_DIR/jogwise-$stamp-$n.tar.gz";
 tar -C "$work" -czf "$work/backup.tar.gz" manifest.json database.sql uploads.sha256 uploads || die "writing the archive failed"
 mv "$work/backup.tar.gz" "$file"
 
-tables=$(node -p "Object.keys(require('$work/manifest.json').database.tables).length")
-rows=$(node -p "Object.values(require('$work/manifest.json').database.tables).reduce((a, b) => a + b, 0)")
-photos=$(node -p "require('$work/manifest.json').uploads.files")
-log "backup written: ${file#$ROOT/} ($(du -h "$file" | cut -f1), $tables tables, $rows rows, $photos photos)"
+log "backup written: ${file#$ROOT/} ($(du -h "$file" | cut -f1), $summary)"
 echo "$file"

@@ -11,11 +11,11 @@ ensure_apt_packages
 ensure_node_modules
 OUT_DIR="${JOGWISE_BENCH_OUTPUT_DIR:-$ROOT/.data/test-output}"
 DB_DIR="${JOGWISE_BENCH_DB_DIR:-mariadb-test}"
-DB_PORT="${JOGWISE_BENCH_DB_PORT:-3418}"
+DB_PORT="$JOGWISE_BENCH_DB_PORT"
 DB_NAME="${JOGWISE_BENCH_DB_NAME:-jogwise_bench}"
-PORT_BENCH="${JOGWISE_BENCH_PORT:-3150}"
+PORT_BENCH="$JOGWISE_BENCH_PORT"
 # A port of its own gets a pid file of its own, so two benchmarks never stop each other's server.
-PID="$DATA_DIR/bench-server${JOGWISE_BENCH_PORT:+-$PORT_BENCH}.pid"
+PID="$DATA_DIR/bench-server-$PORT_BENCH.pid"
 export JOGWISE_BENCH_SERVER_PID_FILE="$PID"
 
 started_db=0
@@ -26,15 +26,8 @@ cleanup() {
   return 0
 }
 trap cleanup EXIT
-JOGWISE_DB_NAME="$DB_NAME" bash scripts/db.sh start "$DB_DIR" "$DB_PORT" >/dev/null
-JOGWISE_DB_NAME="$DB_NAME" bash scripts/db.sh reset-db "$DB_DIR" "$DB_PORT" >/dev/null
-export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT="$DB_PORT" NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME="$DB_NAME"
-node --import tsx scripts/migrate.ts >/dev/null
-if build_is_stale "$OUT_DIR"; then
-  log "building the app"
-  JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/bench-build.log" 2>&1 || { tail -30 "$DATA_DIR/bench-build.log"; die "build failed"; }
-fi
-NUXT_SESSION_PASSWORD=bench-session-secret-0123456789abcdef NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD=shopfloor-demo-1 \
+prepare_app "$DB_DIR" "$DB_PORT" "$DB_NAME" "$OUT_DIR" "$DATA_DIR/bench-build.log" fresh >/dev/null
+NUXT_SESSION_PASSWORD=bench-session-secret-0123456789abcdef NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" \
   PORT="$PORT_BENCH" HOST=127.0.0.1 setsid node "$OUT_DIR/server/index.mjs" > "$DATA_DIR/bench-server.log" 2>&1 < /dev/null &
 echo $! > "$PID"
 wait_for_ready "http://127.0.0.1:$PORT_BENCH/api/health" 90 || die "the benchmark server did not start"

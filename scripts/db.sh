@@ -13,8 +13,8 @@ dir="$DATA_DIR/$name"
 sock="$dir/mariadb.sock"
 pidfile="$dir/mariadb.pid"
 dbname="${JOGWISE_DB_NAME:-jogwise}"
-dbuser="jogwise"
-dbpass="${JOGWISE_DB_PASSWORD:-jogwise-local}"
+dbuser="$JOGWISE_DB_USER"
+dbpass="$JOGWISE_DB_PASSWORD"
 
 mysqld_bin() { command -v mariadbd || echo /usr/sbin/mariadbd; }
 client() { mariadb --no-defaults --socket="$sock" -uroot "$@"; }

@@ -5,6 +5,27 @@ set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 DATA_DIR="$ROOT/.data"
 
+# ---------------------------------------------------------------- ports and credentials
+# Every port and local credential of the scripts, in one place. Each can be overridden from the
+# environment (several checkouts can then run side by side). All listen on loopback only.
+: "${JOGWISE_APP_PORT:=3000}"        # npm start: the app
+: "${JOGWISE_DB_PORT:=3417}"         # npm start and npm run dev: MariaDB (.data/mariadb)
+: "${JOGWISE_MAIL_SMTP_PORT:=3425}"  # npm start: the fake SMTP server
+: "${JOGWISE_MAIL_WEB_PORT:=3426}"   #   and its web API
+: "${JOGWISE_TEST_PORT:=3100}"       # npm test: the app
+: "${JOGWISE_TEST_DB_PORT:=3418}"    #   its MariaDB (.data/mariadb-test)
+: "${JOGWISE_TEST_SMTP_PORT:=3427}"  #   its fake SMTP server
+: "${JOGWISE_TEST_MAIL_WEB_PORT:=3428}"
+: "${JOGWISE_BENCH_PORT:=3150}"      # benchmarks: the app (on the test MariaDB by default)
+: "${JOGWISE_BENCH_DB_PORT:=$JOGWISE_TEST_DB_PORT}"
+: "${SOAK_PORT:=3134}"               # npm run soak: the app
+: "${SOAK_DB_PORT:=3434}"            #   its MariaDB (.data/mariadb-soak)
+# Local-only credentials: MariaDB listens on 127.0.0.1 and the demo shop is invented.
+: "${JOGWISE_DB_USER:=jogwise}"
+: "${JOGWISE_DB_PASSWORD:=jogwise-local}"
+: "${JOGWISE_DEMO_PASSWORD:=shopfloor-demo-1}"
+export JOGWISE_DB_USER JOGWISE_DB_PASSWORD JOGWISE_DEMO_PASSWORD
+
 log() { printf '\033[1m[jogwise]\033[0m %s\n' "$*"; }
 die() { printf '\033[1;31m[jogwise] %s\033[0m\n' "$*" >&2; exit 1; }
 
@@ -40,17 +61,10 @@ ensure_session_secret() {
 }
 
 
-# Waits until GET url answers 200 with JSON whose `ready` is true (server up, a shop seeded).
+# Waits until GET url answers 2xx (the app's /api/health does once the database answers and a
+# shop exists). wait-on does the polling.
 wait_for_ready() { # url seconds
-  node -e '
-    const [url, limit] = [process.argv[1], Number(process.argv[2])]
-    const until = Date.now() + limit * 1000
-    const tick = async () => {
-      try { const r = await fetch(url); if (r.ok && (await r.json()).ready === true) process.exit(0) } catch {}
-      if (Date.now() > until) process.exit(1)
-      setTimeout(tick, 300)
-    }
-    tick()' "$1" "${2:-90}"
+  "$ROOT/node_modules/.bin/wait-on" --timeout "$(( ${2:-90} * 1000 ))" --interval 300 --httpTimeout 5000 "http-get://${1#http://}"
 }
 
 # Is the build in .output older than any source file?
@@ -74,4 +88,30 @@ stop_pidfile() { # pidfile label
     for _ in $(seq 1 40); do pid_alive "$1" || break; sleep 0.25; done
   fi
   rm -f "$1"
+}
+
+# The app's settings for one MariaDB database (NUXT_DB_* are read by server/utils/db.ts).
+use_db() { # port database
+  export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT="$1" NUXT_DB_USER="$JOGWISE_DB_USER" NUXT_DB_PASSWORD="$JOGWISE_DB_PASSWORD" NUXT_DB_NAME="$2"
+}
+
+# Builds the app into out-dir when any source is newer than the build there. Sets `rebuilt`.
+build_if_stale() { # out-dir log-file
+  rebuilt=0
+  build_is_stale "$1" || return 0
+  log "building the app into ${1#$ROOT/} (a few minutes on two cores)"
+  JOGWISE_OUTPUT_DIR="$1" npx nuxt build > "$2" 2>&1 || { tail -40 "$2"; die "build failed (full log: ${2#$ROOT/})"; }
+  rebuilt=1
+}
+
+# The block every entry point shares: start this checkout's MariaDB in data folder db-dir, empty
+# the database first when asked ("fresh"), migrate it, and build the app into out-dir if stale
+# (no out-dir: no build, as for `npm run dev`).
+prepare_app() { # db-dir db-port db-name [out-dir build-log] [fresh]
+  local db_dir="$1" db_port="$2" db_name="$3" out="${4:-}" build_log="${5:-}" fresh="${6:-}"
+  JOGWISE_DB_NAME="$db_name" bash "$ROOT/scripts/db.sh" start "$db_dir" "$db_port"
+  [ "$fresh" = fresh ] && JOGWISE_DB_NAME="$db_name" bash "$ROOT/scripts/db.sh" reset-db "$db_dir" "$db_port" >/dev/null
+  use_db "$db_port" "$db_name"
+  node --import tsx "$ROOT/scripts/migrate.ts"
+  if [ -n "$out" ]; then build_if_stale "$out" "$build_log"; else rebuilt=0; fi
 }

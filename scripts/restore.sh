@@ -18,11 +18,11 @@ file="${1:-}"
 [ -r "$file" ] || die "cannot read the backup file $file"
 
 DB_HOST="${NUXT_DB_HOST:-127.0.0.1}"
-DB_PORT="${NUXT_DB_PORT:-3417}"
-DB_USER="${NUXT_DB_USER:-jogwise}"
+DB_PORT="${NUXT_DB_PORT:-$JOGWISE_DB_PORT}"
+DB_USER="${NUXT_DB_USER:-$JOGWISE_DB_USER}"
 DB_NAME="${JOGWISE_RESTORE_DB_NAME:-${NUXT_DB_NAME:-jogwise}}"
 UPLOADS_DIR="${NUXT_UPLOADS_DIR:-$DATA_DIR/uploads}"
-export MYSQL_PWD="${NUXT_DB_PASSWORD:-jogwise-local}"
+export MYSQL_PWD="${NUXT_DB_PASSWORD:-$JOGWISE_DB_PASSWORD}"
 [[ "$DB_NAME" =~ ^[A-Za-z0-9_]{1,64}$ ]] || die "the target database name \"$DB_NAME\" may only hold letters, digits and _ (at most 64)"
 
 # 1. The file.
@@ -34,23 +34,14 @@ work="$(mktemp -d "${TMPDIR:-/tmp}/jogwise-restore-XXXXXX")"
 staged=""
 trap 'rm -rf "$work"; [ -n "$staged" ] && rm -rf "$staged"; true' EXIT
 tar -C "$work" -xzf "$file" 2>/dev/null || die "$file is damaged: it could not be unpacked"
-node -e '
-  const fs = require("fs")
-  let m
-  try { m = JSON.parse(fs.readFileSync(process.argv[1], "utf8")) } catch { console.error("manifest.json is not JSON"); process.exit(1) }
-  if (m?.format !== "jogwise-backup") { console.error("manifest.json is not a Jogwise backup manifest"); process.exit(1) }
-  if (m.formatVersion !== 1) { console.error(`backup format version ${m.formatVersion} is not one this Jogwise reads (1)`); process.exit(1) }
-  const t = m.database?.tables
-  if (!t || typeof t !== "object" || !Object.values(t).every(n => Number.isInteger(n) && n >= 0)) { console.error("manifest.json has no row counts"); process.exit(1) }
-  for (const name of Object.keys(t)) if (!/^[A-Za-z0-9_]+$/.test(name)) { console.error(`manifest.json names a strange table: ${name}`); process.exit(1) }
-' "$work/manifest.json" 2> "$work/manifest.err" || die "$file is not a usable backup: $(cat "$work/manifest.err")"
+about="$(node --import tsx scripts/backup-manifest.ts check "$work/manifest.json" 2> "$work/manifest.err")" \
+  || die "$file is not a usable backup: $(cat "$work/manifest.err")"
+IFS=$'\t' read -r created version source_db <<<"$about"
 tail -n 1 "$work/database.sql" | grep -q '^-- Dump completed' || die "$file is damaged: its database dump is cut short"
-created="$(node -p "require('$work/manifest.json').createdAt")"
-version="$(node -p "require('$work/manifest.json').app.version")"
-log "backup ${file#$ROOT/}: made $created by Jogwise $version from database $(node -p "require('$work/manifest.json').database.name")"
+log "backup ${file#$ROOT/}: made $created by Jogwise $version from database $source_db"
 
 # Replacing the tables under a running app would mix its writes with the backup's rows.
-if [ "$DB_PORT" = 3417 ] && [ "$DB_NAME" = "${NUXT_DB_NAME:-jogwise}" ] && pid_alive "$DATA_DIR/server.pid"; then
+if [ "$DB_PORT" = "$JOGWISE_DB_PORT" ] && [ "$DB_NAME" = "${NUXT_DB_NAME:-jogwise}" ] && pid_alive "$DATA_DIR/server.pid"; then
   die "the app is running (pid $(cat "$DATA_DIR/server.pid")) on the database this would replace: npm run stop, npm run db:start, then restore again"
 fi
 
@@ -94,20 +85,8 @@ chmod 755 "$UPLOADS_DIR"
 log "restored $photos photos into ${UPLOADS_DIR#$ROOT/} (sha256 checked)"
 
 # 4. Rows per table against the manifest.
-node -e '
-  const m = require(process.argv[1])
-  console.log(Object.keys(m.database.tables).sort().map(t => `SELECT "${t}", COUNT(*) FROM \`${t}\``).join(" UNION ALL ") || "SELECT 1, 1 FROM DUAL WHERE 0")
-' "$work/manifest.json" > "$work/count.sql"
+node --import tsx scripts/backup-manifest.ts count-sql "$work/manifest.json" > "$work/count.sql"
 sql --database="$DB_NAME" < "$work/count.sql" > "$work/counts.txt" 2> "$work/count.err" \
   || die "counting the restored rows failed: $(head -1 "$work/count.err")"
-node -e '
-  const fs = require("fs")
-  const want = require(process.argv[1]).database.tables
-  const got = Object.fromEntries(fs.readFileSync(process.argv[2], "utf8").trim().split("\n").filter(Boolean).map(l => { const [t, n] = l.split("\t"); return [t, Number(n)] }))
-  const bad = Object.keys(want).filter(t => got[t] !== want[t])
-  for (const t of bad) console.error(`  ${t}: ${got[t] ?? "missing"} rows, the backup has ${want[t]}`)
-  const rows = Object.values(want).reduce((a, b) => a + b, 0)
-  if (bad.length) process.exit(1)
-  console.log(`${Object.keys(want).length} tables, ${rows} rows`)
-' "$work/manifest.json" "$work/counts.txt" > "$work/verify.txt" || die "the restored database $DB_NAME does not match the backup's row counts (above)"
+node --import tsx scripts/backup-manifest.ts verify "$work/manifest.json" "$work/counts.txt" > "$work/verify.txt" || die "the restored database $DB_NAME does not match the backup's row counts (above)"
 log "database $DB_NAME restored and checked: $(cat "$work/verify.txt") match the manifest"

@@ -36,10 +36,7 @@ cleanup() {
 trap cleanup EXIT
 trap 'exit 130' INT TERM
 
-if build_is_stale "$OUT_DIR"; then
-  log "building the app for the soak (a few minutes)"
-  JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/soak-build.log" 2>&1 || { tail -30 "$DATA_DIR/soak-build.log"; die "build failed (log: .data/soak-build.log)"; }
-fi
+build_if_stale "$OUT_DIR" "$DATA_DIR/soak-build.log"
 
 log "making a new 3-node Galera cluster on 127.0.0.1:${ports[*]}"
 timeout 300 bash scripts/galera.sh create
@@ -48,14 +45,14 @@ timeout 180 bash scripts/galera.sh start 2
 timeout 180 bash scripts/galera.sh start 3
 bash scripts/galera.sh status 3
 
-export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT="${ports[0]}" NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME="$JOGWISE_DB_NAME"
+use_db "${ports[0]}" "$JOGWISE_DB_NAME"
 node --import tsx scripts/migrate.ts >/dev/null
 
 # The same session secret on every app server; mail waits in the outbox (no SMTP server here).
 mkdir -p "$DATA_DIR/soak-cluster-uploads"
 for app in A B; do : > "$DATA_DIR/soak-cluster-app-$app.log"; done
 export NUXT_UPLOADS_DIR="$DATA_DIR/soak-cluster-uploads" NUXT_SESSION_PASSWORD=soak-cluster-session-secret-0123456789abcdef \
-  NUXT_DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}" NUXT_MAIL_SMTP_HOST= \
+  NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" NUXT_MAIL_SMTP_HOST= \
   SOAK_NODE_PORTS="$(IFS=,; echo "${ports[*]}")" SOAK_SERVER_ENTRY="$OUT_DIR/server/index.mjs" SOAK_LOG_DIR="$DATA_DIR"
 log "soak on the cluster (app logs: .data/soak-cluster-app-A.log and -B.log)"
 # A hard limit, so a hung run never outlives its welcome.

@@ -11,9 +11,9 @@ ensure_apt_packages
 ensure_node_modules
 
 DB_DIR_NAME="${SOAK_DB_DIR:-mariadb-soak}"
-DB_PORT="${SOAK_DB_PORT:-3434}"
+DB_PORT="$SOAK_DB_PORT"
 DB_NAME="${SOAK_DB_NAME:-jogwise_soak}"
-APP_PORT="${SOAK_PORT:-3134}"
+APP_PORT="$SOAK_PORT"
 OUT_DIR="$DATA_DIR/soak-output"
 PIDFILE="$DATA_DIR/soak-server.pid"
 started_db=0
@@ -25,20 +25,13 @@ cleanup() {
 }
 trap cleanup EXIT
 
-JOGWISE_DB_NAME="$DB_NAME" bash scripts/db.sh start "$DB_DIR_NAME" "$DB_PORT" >/dev/null
-JOGWISE_DB_NAME="$DB_NAME" bash scripts/db.sh reset-db "$DB_DIR_NAME" "$DB_PORT" >/dev/null
-export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT="$DB_PORT" NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME="$DB_NAME"
-node --import tsx scripts/migrate.ts >/dev/null
-if build_is_stale "$OUT_DIR"; then
-  log "building the app for the soak (about a minute)"
-  JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/soak-build.log" 2>&1 || { tail -30 "$DATA_DIR/soak-build.log"; die "build failed (log: .data/soak-build.log)"; }
-fi
+prepare_app "$DB_DIR_NAME" "$DB_PORT" "$DB_NAME" "$OUT_DIR" "$DATA_DIR/soak-build.log" fresh >/dev/null
 
 # Photos of the soak stay in their own folder; mail waits in the outbox (no SMTP server here).
 mkdir -p "$DATA_DIR/soak-uploads"
 : > "$DATA_DIR/soak-server.log"
 export NUXT_UPLOADS_DIR="$DATA_DIR/soak-uploads" NUXT_SESSION_PASSWORD=soak-session-secret-0123456789abcdef \
-  NUXT_DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}" NUXT_MAIL_SMTP_HOST= \
+  NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" NUXT_MAIL_SMTP_HOST= \
   SOAK_PORT="$APP_PORT" SOAK_DB_DIR="$DB_DIR_NAME" SOAK_SERVER_ENTRY="$OUT_DIR/server/index.mjs" \
   SOAK_SERVER_LOG="$DATA_DIR/soak-server.log" SOAK_SERVER_PIDFILE="$PIDFILE"
 log "soak against http://127.0.0.1:$APP_PORT (server log: .data/soak-server.log)"

@@ -1,34 +1,25 @@
 #!/usr/bin/env bash
 # npm start: everything from a fresh Debian machine with Node 20 to a served, seeded Jogwise.
-# Starts MariaDB (127.0.0.1:3417) and the app (http://localhost:3000) in the background;
+# Starts MariaDB (127.0.0.1:3417; ports in scripts/lib.sh) and the app (http://localhost:3000) in the background;
 # `npm run stop` stops both.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$ROOT"
 
-PORT="${PORT:-3000}"
-DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}"
+PORT="${PORT:-$JOGWISE_APP_PORT}"
+DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD"
 SERVER_PID="$DATA_DIR/server.pid"
 
 ensure_apt_packages
 ensure_node_modules
-bash scripts/db.sh start mariadb 3417
-
-export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=3417 NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=jogwise
-node --import tsx scripts/migrate.ts
+# MariaDB, migrations, and a build of the app when the sources changed (sets `rebuilt`)
+prepare_app mariadb "$JOGWISE_DB_PORT" jogwise "$ROOT/.output" "$DATA_DIR/build.log"
 
 # The fake SMTP server catches every mail; the owner reads them on Crew → Caught mail.
-MAIL_SMTP_PORT=3425 MAIL_WEB_PORT=3426
+MAIL_SMTP_PORT=$JOGWISE_MAIL_SMTP_PORT MAIL_WEB_PORT=$JOGWISE_MAIL_WEB_PORT
 bash scripts/maildev.sh start maildev $MAIL_SMTP_PORT $MAIL_WEB_PORT
 export NUXT_MAIL_SMTP_HOST=127.0.0.1 NUXT_MAIL_SMTP_PORT=$MAIL_SMTP_PORT NUXT_MAIL_SMTP_SECURE=false \
   NUXT_MAIL_FROM='Jogwise <jogwise@demo.jogwise.test>' NUXT_MAIL_FAKE_API_URL=http://127.0.0.1:$MAIL_WEB_PORT \
   NUXT_SITE_URL="http://localhost:$PORT"
-
-rebuilt=0
-if build_is_stale "$ROOT/.output"; then
-  log "building the app (about a minute)"
-  npx nuxt build > "$DATA_DIR/build.log" 2>&1 || { tail -40 "$DATA_DIR/build.log"; die "build failed (full log: .data/build.log)"; }
-  rebuilt=1
-fi
 
 if pid_alive "$SERVER_PID" && [ "$rebuilt" = 0 ]; then
   log "the app is already running (pid $(cat "$SERVER_PID"))"
@@ -54,7 +45,7 @@ cat <<TXT
   Mail is caught by a local fake SMTP server (nothing leaves this computer); the owner reads it
   at http://localhost:$PORT/crew/mail
 
-  Started in the background: MariaDB on 127.0.0.1:3417 (data in .data/mariadb), the fake mail
+  Started in the background: MariaDB on 127.0.0.1:$JOGWISE_DB_PORT (data in .data/mariadb), the fake mail
   server on 127.0.0.1:$MAIL_SMTP_PORT (mail in .data/maildev) and the app server (log in
   .data/server.log). Stop them all with: npm run stop
 

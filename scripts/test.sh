@@ -4,16 +4,15 @@
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 cd "$ROOT"
 
-TEST_PORT="${JOGWISE_TEST_PORT:-3100}"
-DB_PORT="${JOGWISE_TEST_DB_PORT:-3418}"
-# Several checkouts can run the suite at once when each sets its own ports.
-SMTP_PORT="${JOGWISE_TEST_SMTP_PORT:-3427}"
-MAIL_WEB_PORT="${JOGWISE_TEST_MAIL_WEB_PORT:-3428}"
+# Several checkouts can run the suite at once when each sets its own ports (scripts/lib.sh).
+TEST_PORT="$JOGWISE_TEST_PORT"
+DB_PORT="$JOGWISE_TEST_DB_PORT"
+SMTP_PORT="$JOGWISE_TEST_SMTP_PORT"
+MAIL_WEB_PORT="$JOGWISE_TEST_MAIL_WEB_PORT"
 OUT_DIR="$ROOT/.data/test-output"
 SERVER_PID="$DATA_DIR/test-server-$TEST_PORT.pid"
-export JOGWISE_DEMO_PASSWORD="${JOGWISE_DEMO_PASSWORD:-shopfloor-demo-1}"
 DB_NAME="${JOGWISE_TEST_DB:-jogwise_test}"
-export NUXT_DB_HOST=127.0.0.1 NUXT_DB_PORT=$DB_PORT NUXT_DB_USER=jogwise NUXT_DB_PASSWORD=jogwise-local NUXT_DB_NAME=$DB_NAME
+use_db "$DB_PORT" "$DB_NAME"
 # The backup and restore test creates its scratch database as MariaDB root, on this socket.
 export JOGWISE_TEST_DB_SOCKET="$DATA_DIR/mariadb-test/mariadb.sock"
 export JOGWISE_BASE_URL="http://127.0.0.1:$TEST_PORT"
@@ -52,18 +51,11 @@ if has_part unit; then
   npx vitest run --project unit --project nuxt ${VITEST_FILTER[@]+"${VITEST_FILTER[@]}"}
 fi
 
-# 2. The suite's own database, emptied each run.
+# 2. The suite's own database, emptied each run, and 3. a production build of its own (so a
+# running `npm start` server is never disturbed).
 if ! bash scripts/db.sh status mariadb-test | grep -q running; then started_db=1; fi
-JOGWISE_DB_NAME=$DB_NAME bash scripts/db.sh start mariadb-test $DB_PORT
-JOGWISE_DB_NAME=$DB_NAME bash scripts/db.sh reset-db mariadb-test $DB_PORT
 rm -rf "$NUXT_UPLOADS_DIR"
-node --import tsx scripts/migrate.ts
-
-# 3. A production build of its own (so a running `npm start` server is never disturbed).
-if build_is_stale "$OUT_DIR"; then
-  log "building the app for the tests"
-  JOGWISE_OUTPUT_DIR="$OUT_DIR" npx nuxt build > "$DATA_DIR/test-build.log" 2>&1 || { tail -40 "$DATA_DIR/test-build.log"; die "build failed"; }
-fi
+prepare_app mariadb-test "$DB_PORT" "$DB_NAME" "$OUT_DIR" "$DATA_DIR/test-build.log" fresh
 stop_pidfile "$SERVER_PID" "a leftover test app server"
 # The suite's own fake SMTP server, emptied each run; the tests read what it caught through its
 # REST API (JOGWISE_MAIL_API_URL). A short worker interval and retry waits keep the tests quick.

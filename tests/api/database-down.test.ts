@@ -4,6 +4,7 @@ import { createServer, connect, type Server, type Socket } from 'node:net'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { v7 as uuidv7 } from 'uuid'
 import { as, call } from './client'
+import { freePort } from '../support/app-server'
 
 // MariaDB out of reach and back again, seen by a second app server from the same build. It
 // reaches the suite's MariaDB through a small TCP relay started here; closing the relay (and
@@ -13,15 +14,6 @@ import { as, call } from './client'
 
 const ENTRY = process.env.JOGWISE_SERVER_ENTRY || '.data/test-output/server/index.mjs'
 const DB_PORT = Number(process.env.NUXT_DB_PORT || 3418)
-
-function freePort() {
-  return new Promise<number>((resolve, reject) => {
-    const probe = createServer().once('error', reject).listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number }
-      probe.close(() => resolve(port))
-    })
-  })
-}
 
 // The relay: each client connection piped to MariaDB.
 let relayPort = 0

@@ -1,18 +1,13 @@
 import { spawn, type ChildProcess } from 'node:child_process'
-import { createServer } from 'node:net'
+import { getRandomPort } from 'get-port-please'
+import waitOn from 'wait-on'
 
 // The built app once more, on a free loopback port with extra settings, for checks that need a
 // server configured differently from the suite's (e.g. behind a trusted proxy).
 export const SERVER_ENTRY = process.env.JOGWISE_SERVER_ENTRY || '.data/test-output/server/index.mjs'
 
-export function freePort() {
-  return new Promise<number>((resolve, reject) => {
-    const probe = createServer().once('error', reject).listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number }
-      probe.close(() => resolve(port))
-    })
-  })
-}
+/** A loopback port nothing listens on (get-port-please asks the system for one). */
+export const freePort = () => getRandomPort('127.0.0.1')
 
 export interface AppServer { url: string, pid: number, log: () => string, stop: () => Promise<void> }
 
@@ -36,11 +31,13 @@ export async function startApp(env: Record<string, string>): Promise<AppServer> 
       child.kill('SIGTERM')
     }),
   }
-  for (let i = 0; i < 160; i++) {
-    try { if ((await fetch(`${url}/api/health`)).ok) return server }
-    catch {}
-    await new Promise(r => setTimeout(r, 250))
+  // Ready when /api/health answers 2xx (wait-on polls it).
+  try {
+    await waitOn({ resources: [`http-get://127.0.0.1:${port}/api/health`], timeout: 40_000, interval: 250, httpTimeout: 5000 })
+    return server
   }
-  await server.stop()
-  throw new Error(`the app server did not start:\n${output}`)
+  catch {
+    await server.stop()
+    throw new Error(`the app server did not start:\n${output}`)
+  }
 }
