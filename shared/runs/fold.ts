@@ -376,6 +376,296 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
     return true
   }
 
+  // One handler per event type, made once. The table's type names every event type, so a new
+  // type does not compile until it has a handler here (and an undo rule in undo.ts). Each
+  // handler acts on the event being folded; `return` ends its work on that event.
+  const handlers: { [T in RunEvent['type']]: (e: Extract<RunEvent, { type: T }>) => void } = {
+    'run.started': () => {
+      flag('already-started', 'The run had already started; a second start event was not applied.')
+    },
+
+    'step.done': (e) => {
+      const s = target(e.stepKey, DONE_KINDS, 'Marking done')
+      if (!s || !passesGate(s, 'Marking done')) return
+      if (isComplete(s)) {
+        flag('already-done', `${label(s)} was already complete.`)
+        return
+      }
+      if (s.step.kind === 'signoff') {
+        if (guided()) {
+          flag('signoff-required', `In a guided run ${label(s)} needs a trainer's or owner's sign-off, not a tap on done.`)
+          return
+        }
+        const open = earlierIncomplete(s)
+        if (open.length > 0) {
+          flag('steps-incomplete', `${label(s)} can only be done after every earlier step; ${label(open[0]!)} is not complete.`)
+          return
+        }
+      }
+      if (s.step.kind === 'check') {
+        const v = s.readings.at(-1)
+        if (!v) {
+          flag('missing-value', `${label(s)} needs a recorded value before it can be done.`)
+          return
+        }
+        if (!v.reasonOk) {
+          flag('missing-reason', `The reading ${v.value} ${v.unit} on ${label(s)} is ${v.outOfRange} the allowed range and needs a written reason before the step can be done.`)
+          return
+        }
+      }
+      if (s.step.kind === 'photo' && s.photos.length === 0) {
+        flag('missing-evidence', `${label(s)} needs a photo (or a photo note) before it can be done.`)
+        return
+      }
+      if (s.step.kind === 'planner' && s.plans.length === 0) {
+        flag('missing-plan', `${label(s)} needs an attached plan before it can be done.`)
+        return
+      }
+      s.done = refOf(e)
+      apply(true)
+    },
+
+    'hold.acknowledged': (e) => {
+      const s = target(e.stepKey, HOLD_KIND, 'Acknowledging')
+      if (!s || !passesGate(s, 'Acknowledging')) return
+      if (s.override) {
+        flag('already-cleared', `Hold ${label(s)} was already overridden.`)
+        return
+      }
+      if (s.ack) {
+        flag('already-done', `Hold ${label(s)} was already acknowledged.`)
+        return
+      }
+      s.ack = refOf(e)
+      holdsChanged()
+      apply(true)
+    },
+
+    'value.recorded': (e) => {
+      const s = target(e.stepKey, CHECK_KIND, 'Recording a value')
+      if (!s || !passesGate(s, 'Recording a value')) return
+      if (s.done) {
+        flag('already-done', `${label(s)} was already done; undo it before recording a new value.`)
+        return
+      }
+      const step = s.step as Extract<ProcedureStep, { kind: 'check' }>
+      if (e.unit !== step.unit) {
+        flag('unit-mismatch', `${label(s)} is measured in ${step.unit}, but the value was recorded in ${e.unit}.`)
+        return
+      }
+      const outOfRange = rangeStatus(step, e.value)
+      const reading: RecordedValue = {
+        ...refOf(e),
+        stepKey: s.step.key,
+        value: e.value,
+        unit: e.unit,
+        reason: e.reason ?? null,
+        outOfRange,
+        reasonOk: outOfRange === null || isMeaningfulReason(e.reason),
+      }
+      s.readings.push(reading)
+      values.push(reading)
+      apply(true)
+    },
+
+    'photo.attached': (e) => {
+      const s = target(e.stepKey, PHOTO_KIND, 'Attaching a photo')
+      if (!s || !passesGate(s, 'Attaching a photo')) return
+      if (s.done) {
+        flag('already-done', `${label(s)} was already done.`)
+        return
+      }
+      s.photos.push({ ...refOf(e), stepKey: s.step.key, uploadId: e.uploadId ?? null, note: e.note ?? null })
+      apply(true)
+    },
+
+    'plan.attached': (e) => {
+      const s = target(e.stepKey, PLANNER_KIND, 'Attaching a plan')
+      if (!s || !passesGate(s, 'Attaching a plan')) return
+      if (s.done) {
+        flag('already-done', `${label(s)} was already done.`)
+        return
+      }
+      s.plans.push({ ...refOf(e), stepKey: s.step.key, planId: e.planId ?? null, summary: e.summary })
+      apply(true)
+    },
+
+    'hold.overridden': (e) => {
+      const s = target(e.stepKey, HOLD_KIND, 'An override')
+      if (!s) return
+      if (roles && !isSignerRole(roles[e.actorId])) {
+        flag('not-allowed-for-role', `Only a trainer or the owner may override a hold; user ${e.actorId} is ${roles[e.actorId] ?? 'not a member of this shop'}.`)
+        return
+      }
+      if (!isMeaningfulReason(e.reason)) {
+        flag('missing-reason', `An override of ${label(s)} needs a written reason that says why.`)
+        return
+      }
+      if (!passesGate(s, 'An override')) return
+      if (holdCleared(s)) {
+        flag('already-cleared', `Hold ${label(s)} was already cleared; the override was not needed.`)
+        return
+      }
+      s.override = { ...refOf(e), stepKey: s.step.key, reason: e.reason.trim() }
+      overrides.push(s.override)
+      holdsChanged()
+      apply(true)
+    },
+
+    'signoff.given': (e) => {
+      const role = roles ? roles[e.signerId] : e.signerRole
+      if (!isSignerRole(role)) {
+        flag('not-allowed-for-role', `Only a trainer or the owner may sign off; user ${e.signerId} is ${role ?? 'not a member of this shop'}.`)
+        return
+      }
+      if (guided() && e.signerId === started?.actorId) {
+        flag('self-signoff', 'In a guided run the sign-off must come from someone other than the person doing the run.')
+        return
+      }
+      const signerId = e.signerId
+      // A stored verdict says checked; a seal without one is still on its way to the server.
+      const check = e.verdict?.status === 'verified' || e.seal === undefined ? 'verified' : 'awaiting'
+      const record = (stepKey: string | null): SignoffRecord => ({ ...refOf(e), stepKey, signerId, signerRole: role, check })
+      if (e.stepKey === undefined) {
+        const open = slots.filter(s => !isComplete(s))
+        if (open.length > 0) {
+          flag('steps-incomplete', `The run can only be signed off once every step is complete; ${label(open[0]!)} is not.`)
+          return
+        }
+        if (runSignoff) {
+          flag('already-done', 'The run was already signed off.')
+          return
+        }
+        runSignoff = record(null)
+        signoffs.push(runSignoff)
+        apply(true)
+        return
+      }
+      const s = target(e.stepKey, SIGNABLE_KINDS, 'A sign-off')
+      if (!s || !passesGate(s, 'A sign-off')) return
+      if (s.step.kind === 'hold') {
+        if (s.override) {
+          flag('already-cleared', `Hold ${label(s)} was already overridden.`)
+          return
+        }
+        if (!s.ack) {
+          flag('not-acknowledged', `Hold ${label(s)} must be acknowledged before it is signed.`)
+          return
+        }
+        if (s.signoff) {
+          flag('already-done', `Hold ${label(s)} was already signed.`)
+          return
+        }
+      }
+      else {
+        if (isComplete(s)) {
+          flag('already-done', `${label(s)} was already complete.`)
+          return
+        }
+        const open = earlierIncomplete(s)
+        if (open.length > 0) {
+          flag('steps-incomplete', `${label(s)} can only be signed after every earlier step; ${label(open[0]!)} is not complete.`)
+          return
+        }
+      }
+      s.signoff = record(s.step.key)
+      signoffs.push(s.signoff)
+      holdsChanged()
+      apply(true)
+    },
+
+    'note.added': (e) => {
+      if (e.stepKey !== undefined && !slotByKey.has(e.stepKey)) {
+        flag('unknown-step', `The procedure version has no step with key "${e.stepKey}".`)
+        return
+      }
+      // Notes are allowed anywhere, even past a hold: a remark about a hazard must never be refused.
+      notes.push({ ...refOf(e), stepKey: e.stepKey ?? null, text: e.text })
+      apply(false)
+    },
+
+    'event.undone': (e) => {
+      // Only events earlier in fold order have a fate yet; later ones count as missing.
+      const t = entries.get(e.targetId)
+      const known = t !== undefined && (t.t < cur.t || (t.t === cur.t && t.event.id < e.id))
+      if (!known || t.fate === FLAGGED) {
+        flag('undo-target-missing', known
+          ? 'The event to undo was itself flagged and never took effect.'
+          : 'The event to undo is not in the record before this undo.')
+        return
+      }
+      if (t.fate === UNDONE) {
+        flag('already-undone', 'That event was already undone.')
+        return
+      }
+      const tt = t.event.type
+      if (tt === 'hold.overridden') {
+        flag('undo-of-override-refused', 'An override stays on the record for good and cannot be undone.')
+        return
+      }
+      if (tt === 'signoff.given') {
+        flag('undo-of-signoff-refused', 'A sign-off stays on the record for good and cannot be undone.')
+        return
+      }
+      if (UNDO_RULES[tt] !== 'undoable') {
+        flag('not-undoable', `A ${tt} event cannot be undone.`)
+        return
+      }
+      if (t.event.actorId !== e.actorId) {
+        flag('not-own-event', 'Only the person who made an entry can undo it.')
+        return
+      }
+      if (tt === 'note.added') {
+        notes = notes.filter(n => n.eventId !== t.event.id)
+      }
+      else {
+        if (stack.at(-1) !== t.event.id) {
+          flag('undo-not-last', 'Only the most recent action can be undone, and something else happened after it.')
+          return
+        }
+        stack.pop()
+        revert(t.event)
+      }
+      t.fate = UNDONE
+      undone.push(t.event.id)
+      apply(false)
+    },
+
+    'run.finished': (e) => {
+      const problem = finishProblem()
+      if (problem) {
+        flag('cannot-finish', `The run cannot finish yet: ${problem}`)
+        return
+      }
+      finished = refOf(e)
+      apply(false)
+    },
+
+    'run.abandoned': (e) => {
+      if (!isMeaningfulReason(e.reason)) {
+        flag('missing-reason', 'Abandoning a run needs a written reason that says why.')
+        return
+      }
+      abandoned = { ...refOf(e), reason: e.reason.trim() }
+      apply(false)
+    },
+
+    'run.withdrawn': (e) => {
+      if (stack.length || overrides.length || signoffs.length) {
+        flag('withdraw-after-work', 'A run can be withdrawn only before anything is done in it; stop it with a reason instead.')
+        return
+      }
+      withdrawn = refOf(e)
+      apply(false)
+    },
+
+    'run.handed-over': (e) => {
+      // Who may hand over is the server's rule (sync.ts); the fold only keeps the record.
+      handovers.push({ ...refOf(e), toUserId: e.toUserId })
+      apply(false)
+    },
+  }
+
   for (let n = 0; n < ordered.length; n++) {
     cur = ordered[n]!
     e = cur.event
@@ -405,311 +695,9 @@ export function foldRun(steps: readonly ProcedureStep[], events: readonly RunEve
       continue
     }
 
-    switch (e.type) {
-      case 'run.started': {
-        flag('already-started', 'The run had already started; a second start event was not applied.')
-        break
-      }
-
-      case 'step.done': {
-        const s = target(e.stepKey, DONE_KINDS, 'Marking done')
-        if (!s || !passesGate(s, 'Marking done')) break
-        if (isComplete(s)) {
-          flag('already-done', `${label(s)} was already complete.`)
-          break
-        }
-        if (s.step.kind === 'signoff') {
-          if (guided()) {
-            flag('signoff-required', `In a guided run ${label(s)} needs a trainer's or owner's sign-off, not a tap on done.`)
-            break
-          }
-          const open = earlierIncomplete(s)
-          if (open.length > 0) {
-            flag('steps-incomplete', `${label(s)} can only be done after every earlier step; ${label(open[0]!)} is not complete.`)
-            break
-          }
-        }
-        if (s.step.kind === 'check') {
-          const v = s.readings.at(-1)
-          if (!v) {
-            flag('missing-value', `${label(s)} needs a recorded value before it can be done.`)
-            break
-          }
-          if (!v.reasonOk) {
-            flag('missing-reason', `The reading ${v.value} ${v.unit} on ${label(s)} is ${v.outOfRange} the allowed range and needs a written reason before the step can be done.`)
-            break
-          }
-        }
-        if (s.step.kind === 'photo' && s.photos.length === 0) {
-          flag('missing-evidence', `${label(s)} needs a photo (or a photo note) before it can be done.`)
-          break
-        }
-        if (s.step.kind === 'planner' && s.plans.length === 0) {
-          flag('missing-plan', `${label(s)} needs an attached plan before it can be done.`)
-          break
-        }
-        s.done = refOf(e)
-        apply(true)
-        break
-      }
-
-      case 'hold.acknowledged': {
-        const s = target(e.stepKey, HOLD_KIND, 'Acknowledging')
-        if (!s || !passesGate(s, 'Acknowledging')) break
-        if (s.override) {
-          flag('already-cleared', `Hold ${label(s)} was already overridden.`)
-          break
-        }
-        if (s.ack) {
-          flag('already-done', `Hold ${label(s)} was already acknowledged.`)
-          break
-        }
-        s.ack = refOf(e)
-        holdsChanged()
-        apply(true)
-        break
-      }
-
-      case 'value.recorded': {
-        const s = target(e.stepKey, CHECK_KIND, 'Recording a value')
-        if (!s || !passesGate(s, 'Recording a value')) break
-        if (s.done) {
-          flag('already-done', `${label(s)} was already done; undo it before recording a new value.`)
-          break
-        }
-        const step = s.step as Extract<ProcedureStep, { kind: 'check' }>
-        if (e.unit !== step.unit) {
-          flag('unit-mismatch', `${label(s)} is measured in ${step.unit}, but the value was recorded in ${e.unit}.`)
-          break
-        }
-        const outOfRange = rangeStatus(step, e.value)
-        const reading: RecordedValue = {
-          ...refOf(e),
-          stepKey: s.step.key,
-          value: e.value,
-          unit: e.unit,
-          reason: e.reason ?? null,
-          outOfRange,
-          reasonOk: outOfRange === null || isMeaningfulReason(e.reason),
-        }
-        s.readings.push(reading)
-        values.push(reading)
-        apply(true)
-        break
-      }
-
-      case 'photo.attached': {
-        const s = target(e.stepKey, PHOTO_KIND, 'Attaching a photo')
-        if (!s || !passesGate(s, 'Attaching a photo')) break
-        if (s.done) {
-          flag('already-done', `${label(s)} was already done.`)
-          break
-        }
-        s.photos.push({ ...refOf(e), stepKey: s.step.key, uploadId: e.uploadId ?? null, note: e.note ?? null })
-        apply(true)
-        break
-      }
-
-      case 'plan.attached': {
-        const s = target(e.stepKey, PLANNER_KIND, 'Attaching a plan')
-        if (!s || !passesGate(s, 'Attaching a plan')) break
-        if (s.done) {
-          flag('already-done', `${label(s)} was already done.`)
-          break
-        }
-        s.plans.push({ ...refOf(e), stepKey: s.step.key, planId: e.planId ?? null, summary: e.summary })
-        apply(true)
-        break
-      }
-
-      case 'hold.overridden': {
-        const s = target(e.stepKey, HOLD_KIND, 'An override')
-        if (!s) break
-        if (roles && !isSignerRole(roles[e.actorId])) {
-          flag('not-allowed-for-role', `Only a trainer or the owner may override a hold; user ${e.actorId} is ${roles[e.actorId] ?? 'not a member of this shop'}.`)
-          break
-        }
-        if (!isMeaningfulReason(e.reason)) {
-          flag('missing-reason', `An override of ${label(s)} needs a written reason that says why.`)
-          break
-        }
-        if (!passesGate(s, 'An override')) break
-        if (holdCleared(s)) {
-          flag('already-cleared', `Hold ${label(s)} was already cleared; the override was not needed.`)
-          break
-        }
-        s.override = { ...refOf(e), stepKey: s.step.key, reason: e.reason.trim() }
-        overrides.push(s.override)
-        holdsChanged()
-        apply(true)
-        break
-      }
-
-      case 'signoff.given': {
-        const role = roles ? roles[e.signerId] : e.signerRole
-        if (!isSignerRole(role)) {
-          flag('not-allowed-for-role', `Only a trainer or the owner may sign off; user ${e.signerId} is ${role ?? 'not a member of this shop'}.`)
-          break
-        }
-        if (guided() && e.signerId === started.actorId) {
-          flag('self-signoff', 'In a guided run the sign-off must come from someone other than the person doing the run.')
-          break
-        }
-        const signerId = e.signerId
-        // A stored verdict says checked; a seal without one is still on its way to the server.
-        const check = e.verdict?.status === 'verified' || e.seal === undefined ? 'verified' : 'awaiting'
-        const record = (stepKey: string | null): SignoffRecord => ({ ...refOf(e), stepKey, signerId, signerRole: role, check })
-        if (e.stepKey === undefined) {
-          const open = slots.filter(s => !isComplete(s))
-          if (open.length > 0) {
-            flag('steps-incomplete', `The run can only be signed off once every step is complete; ${label(open[0]!)} is not.`)
-            break
-          }
-          if (runSignoff) {
-            flag('already-done', 'The run was already signed off.')
-            break
-          }
-          runSignoff = record(null)
-          signoffs.push(runSignoff)
-          apply(true)
-          break
-        }
-        const s = target(e.stepKey, SIGNABLE_KINDS, 'A sign-off')
-        if (!s || !passesGate(s, 'A sign-off')) break
-        if (s.step.kind === 'hold') {
-          if (s.override) {
-            flag('already-cleared', `Hold ${label(s)} was already overridden.`)
-            break
-          }
-          if (!s.ack) {
-            flag('not-acknowledged', `Hold ${label(s)} must be acknowledged before it is signed.`)
-            break
-          }
-          if (s.signoff) {
-            flag('already-done', `Hold ${label(s)} was already signed.`)
-            break
-          }
-        }
-        else {
-          if (isComplete(s)) {
-            flag('already-done', `${label(s)} was already complete.`)
-            break
-          }
-          const open = earlierIncomplete(s)
-          if (open.length > 0) {
-            flag('steps-incomplete', `${label(s)} can only be signed after every earlier step; ${label(open[0]!)} is not complete.`)
-            break
-          }
-        }
-        s.signoff = record(s.step.key)
-        signoffs.push(s.signoff)
-        holdsChanged()
-        apply(true)
-        break
-      }
-
-      case 'note.added': {
-        if (e.stepKey !== undefined && !slotByKey.has(e.stepKey)) {
-          flag('unknown-step', `The procedure version has no step with key "${e.stepKey}".`)
-          break
-        }
-        // Notes are allowed anywhere, even past a hold: a remark about a hazard must never be refused.
-        notes.push({ ...refOf(e), stepKey: e.stepKey ?? null, text: e.text })
-        apply(false)
-        break
-      }
-
-      case 'event.undone': {
-        // Only events earlier in fold order have a fate yet; later ones count as missing.
-        const t = entries.get(e.targetId)
-        const known = t !== undefined && (t.t < cur.t || (t.t === cur.t && t.event.id < e.id))
-        if (!known || t.fate === FLAGGED) {
-          flag('undo-target-missing', known
-            ? 'The event to undo was itself flagged and never took effect.'
-            : 'The event to undo is not in the record before this undo.')
-          break
-        }
-        if (t.fate === UNDONE) {
-          flag('already-undone', 'That event was already undone.')
-          break
-        }
-        const tt = t.event.type
-        if (tt === 'hold.overridden') {
-          flag('undo-of-override-refused', 'An override stays on the record for good and cannot be undone.')
-          break
-        }
-        if (tt === 'signoff.given') {
-          flag('undo-of-signoff-refused', 'A sign-off stays on the record for good and cannot be undone.')
-          break
-        }
-        if (UNDO_RULES[tt] !== 'undoable') {
-          flag('not-undoable', `A ${tt} event cannot be undone.`)
-          break
-        }
-        if (t.event.actorId !== e.actorId) {
-          flag('not-own-event', 'Only the person who made an entry can undo it.')
-          break
-        }
-        if (tt === 'note.added') {
-          notes = notes.filter(n => n.eventId !== t.event.id)
-        }
-        else {
-          if (stack.at(-1) !== t.event.id) {
-            flag('undo-not-last', 'Only the most recent action can be undone, and something else happened after it.')
-            break
-          }
-          stack.pop()
-          revert(t.event)
-        }
-        t.fate = UNDONE
-        undone.push(t.event.id)
-        apply(false)
-        break
-      }
-
-      case 'run.finished': {
-        const problem = finishProblem()
-        if (problem) {
-          flag('cannot-finish', `The run cannot finish yet: ${problem}`)
-          break
-        }
-        finished = refOf(e)
-        apply(false)
-        break
-      }
-
-      case 'run.abandoned': {
-        if (!isMeaningfulReason(e.reason)) {
-          flag('missing-reason', 'Abandoning a run needs a written reason that says why.')
-          break
-        }
-        abandoned = { ...refOf(e), reason: e.reason.trim() }
-        apply(false)
-        break
-      }
-
-      case 'run.withdrawn': {
-        if (stack.length || overrides.length || signoffs.length) {
-          flag('withdraw-after-work', 'A run can be withdrawn only before anything is done in it; stop it with a reason instead.')
-          break
-        }
-        withdrawn = refOf(e)
-        apply(false)
-        break
-      }
-
-      case 'run.handed-over': {
-        // Who may hand over is the server's rule (sync.ts); the fold only keeps the record.
-        handovers.push({ ...refOf(e), toUserId: e.toUserId })
-        apply(false)
-        break
-      }
-
-      default: {
-        const unknown = e as RunEvent
-        flag('invalid-event', `Unknown event type "${String(unknown.type)}".`)
-      }
-    }
+    const handle = handlers[e.type] as ((event: RunEvent) => void) | undefined
+    if (handle) handle(e)
+    else flag('invalid-event', `Unknown event type "${String((e as { type?: unknown }).type)}".`)
   }
 
   // Reverts the action on top of the stack. Because it is on top, nothing applied later
