@@ -1,8 +1,7 @@
 import { foldRun } from '#shared/runs'
 import type { RunEvent } from '#shared/runs'
-import type { ServerEvent } from '#shared/schemas/sync'
 import type { DueItem } from '~~/server/utils/due-list'
-import type { RunSnapshot } from './run'
+import { readRunSnapshot, withoutServerFields, type RunSnapshot } from './run-snapshots'
 
 const DUE_KEY = 'floor-due'
 
@@ -40,7 +39,7 @@ export function useTabletProgress(runIds: Ref<string[]>) {
       const wanted = new Set([...runIds.value, ...sync.waiting.map(q => q.event.runId)])
       for (const id of wanted) {
         if (snapshots.value[id]) continue
-        const snap = await localStore.get<RunSnapshot>(`run:${id}`)
+        const snap = await readRunSnapshot(id)
         if (snap) snapshots.value = { ...snapshots.value, [id]: snap }
       }
     }, { immediate: true })
@@ -52,8 +51,7 @@ export function useTabletProgress(runIds: Ref<string[]>) {
       const queued = sync.waiting.filter(q => q.event.runId === id)
       if (!queued.length) continue
       const byId = new Map<string, RunEvent>()
-      const strip = ({ seq: _s, flag: _f, ...e }: ServerEvent) => e as unknown as RunEvent
-      for (const e of [...snap.serverEvents, ...(sync.incoming[id] ?? [])]) byId.set(e.id, strip(e))
+      for (const e of [...snap.serverEvents, ...(sync.incoming[id] ?? [])]) byId.set(e.id, withoutServerFields(e))
       for (const q of queued) byId.set(q.event.id, q.event)
       const state = foldRun(snap.version.steps, [...byId.values()])
       const current = state.steps[state.currentStepIndex]

@@ -1,4 +1,4 @@
-import type { WaitingPhoto } from '~/stores/sync'
+import { PHOTO_PREFIX, type WaitingPhoto } from '~/stores/photo-queue'
 
 /**
  * Where to show a photo from: the tablet's own copy while it still waits to be uploaded (works
@@ -12,7 +12,7 @@ export function usePhotoUrl(uploadId: MaybeRefOrGetter<string | null | undefined
   watch(() => toValue(uploadId), async (id) => {
     release()
     if (!id) { url.value = null; return }
-    const local = import.meta.client ? await localStore.get<WaitingPhoto>(`photo:${id}`).catch(() => undefined) : undefined
+    const local = import.meta.client ? await localStore.get<WaitingPhoto>(PHOTO_PREFIX + id).catch(() => undefined) : undefined
     if (toValue(uploadId) !== id) return
     if (local?.blob) url.value = objectUrl = URL.createObjectURL(local.blob)
     else url.value = `/api/uploads/${id}`

@@ -1,33 +1,12 @@
 import { foldRun, makeEvent, newRunId, nextAction } from '#shared/runs'
 import type { RunEvent, RunEventPayload, RunEventType, RunMode } from '#shared/runs'
-import type { ProcedureStep } from '#shared/procedures'
 import type { LengthUnit } from '#shared/machining'
 import type { ServerEvent } from '#shared/schemas/sync'
+import { readRunSnapshot, withoutServerFields as strip, writeRunSnapshot, type RunSnapshot, type RunVersion } from './run-snapshots'
 
 // A run on this tablet: the exact procedure version it follows, the events the server has,
 // and the events still waiting in the queue, folded by shared/runs. The Run screen only renders
 // this state and appends events; it never decides rules itself.
-
-export interface RunVersion { id: number, procedureId: number, version: number, title: string, summary: string, steps: ProcedureStep[] }
-export interface RunSnapshot {
-  runId: string
-  machineId: number
-  machineName: string
-  /** The machine's own length units: checks written in mm or in are shown in these. */
-  machineUnits?: LengthUnit
-  version: RunVersion
-  serverEvents: ServerEvent[]
-  /** Names of the people in the run's record, by user id. */
-  people?: Record<number, string>
-  savedAt: string
-}
-
-const snapshotKey = (runId: string) => `run:${runId}`
-
-function strip(e: ServerEvent): RunEvent {
-  const { seq: _seq, flag: _flag, ...event } = e
-  return event as unknown as RunEvent
-}
 
 export function useRun(runId: string) {
   const sync = useSyncStore()
@@ -38,7 +17,7 @@ export function useRun(runId: string) {
 
   async function load() {
     await sync.load()
-    const cached = await localStore.get<RunSnapshot>(snapshotKey(runId))
+    const cached = await readRunSnapshot(runId)
     // The tablet's copy draws the screen at once; it is labelled only if the server cannot answer.
     if (cached) snapshot.value = cached
     try {
@@ -60,7 +39,7 @@ export function useRun(runId: string) {
         savedAt: new Date().toISOString(),
       }
       fromCache.value = saved
-      await localStore.set(snapshotKey(runId), toRaw(snapshot.value))
+      await writeRunSnapshot(snapshot.value)
     }
     catch (error: any) {
       // Offline, or the run's start has not reached the server yet: the tablet's copy stands.
@@ -112,7 +91,7 @@ export async function startRun(args: { machine: { id: number, name: string, unit
   if (!user.value) throw new Error('Sign in first.')
   const runId = newRunId()
   const snapshot: RunSnapshot = { runId, machineId: args.machine.id, machineName: args.machine.name, machineUnits: args.machine.units, version: args.version, serverEvents: [], savedAt: new Date().toISOString() }
-  await localStore.set(snapshotKey(runId), JSON.parse(JSON.stringify(snapshot)))
+  await writeRunSnapshot(snapshot)
   const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId() }, 'run.started', {
     procedureVersionId: args.version.id, machineId: args.machine.id, mode: args.mode,
   })

@@ -3,6 +3,7 @@ import type { RunEvent } from '#shared/runs'
 import type { ServerEvent, SyncResponse } from '#shared/schemas/sync'
 import { MAX_SYNC_EVENTS } from '#shared/schemas/sync'
 import { nextDelay } from '~/utils/backoff'
+import { usePhotoQueueStore } from './photo-queue'
 
 // The offline queue. Every run event is written to IndexedDB before anything else happens,
 // then replayed to POST /api/sync in batches when the network allows: on coming online, on an
@@ -18,18 +19,9 @@ export interface QueuedEvent {
   reason?: string
 }
 
-/** A photo kept on the tablet until the server has stored it (key `photo:<uploadId>`). */
-export interface WaitingPhoto {
-  blob: Blob
-  runId: string
-  contentType: string
-  createdAt: string
-  /** The server's reason when it refused the photo; it stays until someone retries. */
-  rejectedReason?: string
-}
-export interface PhotoProblem { uploadId: string, runId: string, reason: string }
-
-export const PHOTO_PREFIX = 'photo:'
+// The photo queue and the tablet's run copies live beside it (stores/photo-queue.ts,
+// composables/run-snapshots.ts); this store sends both queues and adds what the server
+// confirmed to the run copies.
 const QUEUE_KEY = 'queue'
 const CURSOR_KEY = 'cursor'
 const LAST_SYNC_KEY = 'last-sync'
@@ -52,6 +44,8 @@ export const useSyncStore = defineStore('sync', () => {
   const networkUp = useOnline()
   const reachable = ref(true)
   const online = computed(() => networkUp.value && reachable.value)
+  const photoQueue = usePhotoQueueStore()
+  const { waiting: photosWaiting, problems: photoProblems } = storeToRefs(photoQueue)
   let timer: ReturnType<typeof setTimeout> | undefined
   let writing: Promise<unknown> = Promise.resolve()
 
@@ -70,7 +64,7 @@ export const useSyncStore = defineStore('sync', () => {
     queue.value = (await localStore.get<QueuedEvent[]>(QUEUE_KEY)) ?? []
     cursor.value = (await localStore.get<number>(CURSOR_KEY)) ?? 0
     lastSyncAt.value = (await localStore.get<string>(LAST_SYNC_KEY)) ?? null
-    await refreshPhotos()
+    await photoQueue.refresh()
     loaded.value = true
   }
 
@@ -129,7 +123,7 @@ export const useSyncStore = defineStore('sync', () => {
         .filter(q => !accepted.has(q.event.id))
         .map(q => reasons.has(q.event.id) ? { ...q, state: 'rejected' as const, reason: reasons.get(q.event.id) } : q)
       await persist()
-      await saveToSnapshots(confirmed)
+      await addToRunSnapshots(confirmed)
       cursor.value = Math.max(cursor.value, res.cursor)
       await localStore.set(CURSOR_KEY, cursor.value)
       lastSyncAt.value = new Date().toISOString()
@@ -144,10 +138,7 @@ export const useSyncStore = defineStore('sync', () => {
       failures.value++
       // No answer at all (not even an error status) means the server is out of reach.
       reachable.value = Boolean(error?.response)
-      if (error?.statusCode === 401 || error?.response?.status === 401) {
-        needsSignIn.value = true
-        lastError.value = 'Signed out: sign in again to send the waiting entries.'
-      }
+      if (error?.statusCode === 401 || error?.response?.status === 401) signedOut()
       else {
         lastError.value = error?.data?.message ?? 'The server could not be reached.'
         schedule(nextDelay(failures.value))
@@ -158,102 +149,24 @@ export const useSyncStore = defineStore('sync', () => {
     }
   }
 
-  async function saveToSnapshots(events: ServerEvent[]) {
-    const byRun = new Map<string, ServerEvent[]>()
-    for (const e of events) byRun.set(e.runId, [...(byRun.get(e.runId) ?? []), e])
-    for (const [runId, list] of byRun) {
-      const snap = await localStore.get<{ serverEvents: ServerEvent[] }>(`run:${runId}`)
-      if (!snap) continue
-      const known = new Set(snap.serverEvents.map(e => e.id))
-      snap.serverEvents.push(...list.filter(e => !known.has(e.id)))
-      await localStore.set(`run:${runId}`, snap)
-    }
+  const signedOut = () => {
+    needsSignIn.value = true
+    lastError.value = 'Signed out: sign in again to send the waiting entries.'
   }
 
-  // --- Photos waiting for the network ---------------------------------------------------------
-  // Each photo is its own IndexedDB entry (a blob is too big to rewrite with the queue) and is
-  // deleted only after the server confirmed it stored the photo.
-  const photosWaiting = ref(0)
-  const photoProblems = ref<PhotoProblem[]>([])
-  let uploading = false
-
-  async function refreshPhotos() {
-    if (import.meta.server) return
-    let count = 0
-    const problems: PhotoProblem[] = []
-    for (const key of await localStore.keys()) {
-      if (!key.startsWith(PHOTO_PREFIX)) continue
-      const photo = await localStore.get<WaitingPhoto>(key)
-      if (!photo) continue
-      if (photo.rejectedReason) problems.push({ uploadId: key.slice(PHOTO_PREFIX.length), runId: photo.runId, reason: photo.rejectedReason })
-      else count++
-    }
-    photosWaiting.value = count
-    photoProblems.value = problems
-  }
-
-  /** Keeps a photo on the tablet; call before recording the event that names it. */
-  async function keepPhoto(uploadId: string, photo: WaitingPhoto) {
-    await localStore.set(PHOTO_PREFIX + uploadId, photo)
-    await refreshPhotos()
-  }
-
-  async function uploadPhotos(): Promise<{ signedOut: boolean, deferred: boolean }> {
-    const result = { signedOut: false, deferred: false }
-    if (uploading) return result
-    uploading = true
-    try {
-      for (const key of await localStore.keys()) {
-        if (!key.startsWith(PHOTO_PREFIX)) continue
-        const photo = await localStore.get<WaitingPhoto>(key)
-        if (!photo || photo.rejectedReason) continue
-        const uploadId = key.slice(PHOTO_PREFIX.length)
-        let res: Response
-        try {
-          res = await fetch(`/api/uploads/${uploadId}?runId=${encodeURIComponent(photo.runId)}`, {
-            method: 'PUT',
-            headers: { 'content-type': photo.contentType, 'accept': 'application/json' },
-            body: photo.blob,
-            signal: AbortSignal.timeout(60_000),
-          })
-        }
-        catch {
-          break // No network: every photo stays for the next flush.
-        }
-        if (res.ok) { await localStore.del(key); continue }
-        if (res.status === 401) {
-          needsSignIn.value = true
-          lastError.value = 'Signed out: sign in again to send the waiting entries.'
-          result.signedOut = true
-          break
-        }
-        // A run started offline is unknown to the server until its first event is merged.
-        if (res.status === 404 && queue.value.some(q => q.event.runId === photo.runId && q.event.type === 'run.started' && q.state === 'waiting')) {
-          result.deferred = true
-          continue
-        }
-        if (res.status >= 400 && res.status < 500) {
-          const answer = await res.json().catch(() => null)
-          await localStore.set(key, { ...photo, rejectedReason: answer?.message || `The server refused the photo (${res.status}).` })
-          continue
-        }
-        break // A server error: try again later.
-      }
-    }
-    finally {
-      uploading = false
-      await refreshPhotos()
-    }
+  /** Sends the waiting photos; a photo of a run whose start is still queued waits for it. */
+  async function uploadPhotos() {
+    const startWaits = (runId: string) => queue.value.some(q => q.event.runId === runId && q.event.type === 'run.started' && q.state === 'waiting')
+    const result = await photoQueue.upload(startWaits)
+    if (result.signedOut) signedOut()
     return result
   }
 
+  const keepPhoto = photoQueue.keep
+
   /** Sends a refused photo again, e.g. after its run reached the server. */
   async function retryPhoto(uploadId: string) {
-    const photo = await localStore.get<WaitingPhoto>(PHOTO_PREFIX + uploadId)
-    if (!photo) return
-    const { rejectedReason: _reason, ...rest } = photo
-    await localStore.set(PHOTO_PREFIX + uploadId, rest)
-    await refreshPhotos()
+    await photoQueue.retry(uploadId)
     schedule(0)
   }
 

@@ -114,6 +114,7 @@ describe('npm run backup, then npm run restore FILE into a fresh database', () =
     let file = ''
     let source: Record<string, TableSum> = {}
     let moving: string[] = []
+    const alwaysMoving = (t: string) => t === 'mail_outbox' || t === 'worker_leases'
     for (let attempt = 0; attempt < 4; attempt++) {
       const before = await snapshot(SOURCE_DB)
       const made = await script('backup', [], { JOGWISE_BACKUP_DIR: backupDir, NUXT_UPLOADS_DIR: SOURCE_UPLOADS })
@@ -122,9 +123,9 @@ describe('npm run backup, then npm run restore FILE into a fresh database', () =
       file = made.stdout.trim().split('\n').at(-1)!
       source = after
       moving = Object.keys(after).filter(t => JSON.stringify(before[t]) !== JSON.stringify(after[t]))
-      if (!moving.length) break
+      if (moving.every(alwaysMoving)) break
     }
-    expect(moving.filter(t => t !== 'mail_outbox' && t !== 'worker_leases'), 'tables that changed during every backup').toEqual([])
+    expect(moving.filter(t => !alwaysMoving(t)), 'tables that changed during every backup').toEqual([])
     expect(file).toMatch(/jogwise-\d{8}T\d{6}Z(-\d+)?\.tar\.gz$/)
     expect(existsSync(file)).toBe(true)
 
@@ -160,7 +161,7 @@ describe('npm run backup, then npm run restore FILE into a fresh database', () =
     expect(again.code, again.stderr).toBe(0)
     expect(await snapshot(TARGET_DB)).toEqual(copy)
     expect(await filesUnder(restoredUploads)).toEqual(back)
-  }, 60_000)
+  }, 180_000)
 
   it('refuses a missing, foreign or cut-short file in plain words and leaves the database alone', async () => {
     const before = await snapshot(TARGET_DB)

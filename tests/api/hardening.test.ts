@@ -103,8 +103,11 @@ describe('Medium 5: bodies are counted as they arrive', () => {
     expect(res.status).toBe(413)
     expect(res.type).toMatch(/application\/json/)
     expect(JSON.parse(res.body).message).toMatch(/over 2 MB/)
-    // Refused near the 2 MB limit, not after the whole 30 MB arrived.
-    expect(res.sent).toBeLessThan(12 * 1024 * 1024)
+    // Refused long before the whole 30 MB arrived. `sent` counts what this client handed to its
+    // socket before the answer came, kernel buffers included, so it grows with the machine's
+    // load (about 4 MB when quiet, 15 MB seen on a busy 2-core machine): the bound is loose on
+    // purpose, and the server's own memory below is the strict check.
+    expect(res.sent).toBeLessThan(22 * 1024 * 1024)
     // The review saw +117 MB; a 2 MB buffer plus socket buffers stays far below 40 MB.
     expect(peak - before).toBeLessThan(40 * 1024 * 1024)
     // The server still answers.
