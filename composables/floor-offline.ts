@@ -10,7 +10,7 @@ const DUE_KEY = 'floor-due'
  * offline (no answer, or only an error) the badges stay as they last were.
  */
 export function useFloorDue() {
-  const { data, error } = useFetch<DueItem[]>('/api/due', { key: 'due', default: () => [] })
+  const { data, error } = useDue()
   const kept = ref<DueItem[] | null>(null)
   if (import.meta.client) {
     onMounted(async () => { kept.value = (await localStore.get<DueItem[]>(DUE_KEY)) ?? null })
