@@ -40,7 +40,8 @@ beforeEach(async () => {
     return new Response(JSON.stringify(s < 300 ? { id: 'x' } : { message: `Refused with ${s}.` }), { status: s, headers: { 'content-type': 'application/json' } })
   }))
 })
-afterEach(() => { vi.unstubAllGlobals() })
+// A store's timed replay must not run on into the next test (its photos share IndexedDB).
+afterEach(() => { useSyncStore().stop(); vi.unstubAllGlobals() })
 
 describe('photos in the sync store', () => {
   it('uploads a waiting photo before the events and deletes it only once stored', async () => {
