@@ -94,6 +94,7 @@ export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unkn
     case 'signed-off': return `Signed off ${d.stepTitle ? `"${d.stepTitle}"` : 'the run'}${d.signerRole ? ` as ${d.signerRole}` : ''}.${notCounted}`
     case 'entry-changed': return String(d.reason ?? '')
     case 'backdated': return String(d.reason ?? '')
+    case 'entered-from-paper': return `Run done on paper${d.ranAt ? ` on ${String(d.ranAt).slice(0, 16).replace('T', ' ')} UTC` : ''} by ${d.operatorName ?? 'the person named'}, entered ${d.enteredAt ? `on ${String(d.enteredAt).slice(0, 16).replace('T', ' ')} UTC ` : ''}by ${d.enteredByName ?? 'a trainer or the owner'}${d.sheetUploadId ? ' (photo of the sheet kept)' : ''}.`
     default: return String(d.reason ?? '')
   }
 }
