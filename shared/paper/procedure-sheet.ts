@@ -4,12 +4,14 @@ import { describeRange, PROCEDURE_CATEGORY_LABELS, SIGNAL_WORD_INFO, type Proced
 import { PAPER_POINTS, type PaperSize } from './sizes'
 import { qrMatrix, QR_QUIET_ZONE } from './qr-matrix'
 import { printable, wrap } from './sheet-text'
+import { woffToSfnt } from './woff'
 
 // A procedure version as a printed sheet (PDF), for the laminated copy on the machine and for
 // runs done on paper. Pure: the browser makes it with no network (the fonts come from the
 // app's own files) and the tests read it back. Hold points carry the same signal-word panel
 // as the screen (components/library/HoldPanel.vue, ANSI Z535.4 colours and alert triangle).
 
+/** The app's own font files in WOFF 1.0, regular and bold. */
 export interface SheetFonts { regular: Uint8Array | ArrayBuffer, bold: Uint8Array | ArrayBuffer }
 
 export interface SheetInput {
@@ -43,8 +45,8 @@ export function printedLine(at: Date) {
 export async function procedureSheetPdf(input: SheetInput, fonts: SheetFonts): Promise<Uint8Array> {
   const doc = await PDFDocument.create()
   doc.registerFontkit(fontkit)
-  const regular = await doc.embedFont(fonts.regular, { subset: true })
-  const bold = await doc.embedFont(fonts.bold, { subset: true })
+  const regular = await doc.embedFont(await woffToSfnt(new Uint8Array(fonts.regular)), { subset: false })
+  const bold = await doc.embedFont(await woffToSfnt(new Uint8Array(fonts.bold)), { subset: false })
   doc.setTitle(`${input.title} — version ${input.version}`)
   doc.setProducer('Jogwise')
   doc.setCreationDate(input.printedAt)

@@ -1,7 +1,7 @@
 import { readFile } from 'node:fs/promises'
 import { createRequire } from 'node:module'
 
-// The app's own fonts as the browser loads them (composables/sheet-fonts.ts), read from the
+// The app's own fonts, the same WOFF files the browser loads (composables/paper-sheet.ts), from the
 // installed @fontsource package.
 const require = createRequire(import.meta.url)
 const file = (weight: 400 | 700) => require.resolve(`@fontsource/atkinson-hyperlegible/files/atkinson-hyperlegible-latin-${weight}-normal.woff`)

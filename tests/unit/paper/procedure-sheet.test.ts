@@ -16,7 +16,8 @@ const procedures = STARTER_LIBRARY.map((p) => {
 })
 const printedAt = new Date('2026-12-03T10:00:00Z')
 
-describe('procedure sheet PDF', () => {
+// Making and reading back a sheet takes a few seconds on a busy machine.
+describe('procedure sheet PDF', { timeout: 60_000 }, () => {
   it.each(procedures.map(p => [p.title, p] as const))('%s holds every step title, signal word and check range', async (_t, p) => {
     const bytes = await procedureSheetPdf({ ...p, version: 4, paperSize: 'a4', printedAt, url: 'https://shop.example/library/7' }, await sheetFonts())
     const { text } = await pdfText(bytes)
