@@ -8,7 +8,7 @@ interface Detector { detect: (source: CanvasImageSource) => Promise<{ rawValue: 
 
 async function makeDetector(): Promise<Detector> {
   const native = (globalThis as { BarcodeDetector?: { new (o: { formats: string[] }): Detector, getSupportedFormats: () => Promise<string[]> } }).BarcodeDetector
-  if (native && (await native.getSupportedFormats().catch(() => [])).includes('qr_code')) return new native({ formats: ['qr_code'] })
+  if (native && (await native.getSupportedFormats().catch((): string[] => [])).includes('qr_code')) return new native({ formats: ['qr_code'] })
   const { BarcodeDetector, setZXingModuleOverrides } = await import('barcode-detector/ponyfill')
   setZXingModuleOverrides({ locateFile: (path: string, prefix: string) => (path.endsWith('.wasm') ? wasmUrl : prefix + path) })
   return new BarcodeDetector({ formats: ['qr_code'] })

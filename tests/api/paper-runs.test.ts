@@ -96,7 +96,7 @@ describe('POST /api/paper-runs: bad input names the field and the reason', () =>
     ['a stopped run without a reason', { outcome: 'stopped', ticked: ['look'], readings: [] }, 'stopReason'],
     ['a solo run by a person not qualified', { mode: 'solo', signerId: undefined }, 'mode'],
     ['an unknown field', { extra: 1 }, ''],
-  ])('%s', async (_what, over, path) => {
+  ] as [string, Record<string, unknown>, string][])('%s', async (_what, over, path) => {
     const other = over.machineId === 'other' ? await otherShop() : null
     const patch: Record<string, unknown> = { ...over }
     if (other) patch.machineId = other.machineId

@@ -1,3 +1,4 @@
+import { readFile } from 'node:fs/promises'
 import { expect, test, type Page } from '@playwright/test'
 import { signIn, signInForOffline } from './helpers'
 
@@ -12,15 +13,13 @@ async function openPrint(page: Page) {
   await expect(page.getByRole('heading', { level: 1 })).toContainText(RESURFACING)
 }
 
-/** The sheet the page made: its first bytes and its size. */
+/** The sheet the page made, as "Download PDF" saves it: its first bytes and its size. */
 async function sheet(page: Page) {
-  const link = page.locator('[data-sheet-ready]')
-  await expect(link).toBeVisible({ timeout: 20_000 })
-  const href = await link.getAttribute('href')
-  return page.evaluate(async (url) => {
-    const bytes = new Uint8Array(await (await fetch(url!)).arrayBuffer())
-    return { head: String.fromCharCode(...bytes.slice(0, 5)), size: bytes.length }
-  }, href)
+  await expect(page.locator('[data-sheet-ready]')).toBeVisible({ timeout: 30_000 })
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download PDF' }).click()])
+  const bytes = await readFile((await download.path())!)
+  expect(download.suggestedFilename()).toMatch(/^Resurface-the-spoilboard-v\d+\.pdf$/)
+  return { head: bytes.subarray(0, 5).toString('latin1'), size: bytes.length }
 }
 
 test('any member prints a procedure as a PDF sheet', async ({ page }) => {
