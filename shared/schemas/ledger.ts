@@ -82,6 +82,12 @@ export type LedgerRunsQuery = z.output<typeof LedgerRunsQuerySchema>
 
 /** One line saying what an entry is about, the same on the screen and in the CSV. */
 export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unknown>): string {
+  const text = summaryOf(kind, detail)
+  // Entries of a run done on paper say so wherever they are read (table, record, CSV).
+  return detail.fromPaper && kind !== 'entered-from-paper' ? `${text} (Entered from paper.)` : text
+}
+
+function summaryOf(kind: LedgerEntryKind, detail: Record<string, unknown>): string {
   const d = detail as Record<string, any>
   const notCounted = typeof d.notCounted === 'string' ? ` Not counted: ${d.notCounted}` : ''
   switch (kind) {

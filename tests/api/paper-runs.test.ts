@@ -161,6 +161,9 @@ describe('a paper run lands in the record, the Ledger and the due list', () => {
       const detail = typeof r.detail === 'string' ? JSON.parse(r.detail) : r.detail
       expect(detail.fromPaper).toMatchObject({ enteredBy: ids.trainer })
     }
+    const signed = ((await call('GET', '/api/ledger?kind=signed-off&pageSize=100', { cookie: owner })).body.rows ?? []).filter((e: any) => e.runId === runId)
+    expect(signed.length).toBe(2)
+    for (const e of signed) expect(e.summary).toMatch(/\(Entered from paper\.\)$/)
     const csv = await fetch(`${BASE_URL}/api/ledger/export.csv?kind=entered-from-paper`, { headers: { cookie: owner } })
     expect(await csv.text()).toContain('Entered from paper')
   })
