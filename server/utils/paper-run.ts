@@ -70,17 +70,34 @@ export async function enterPaperRun(user: ShopUser, input: PaperRun): Promise<{ 
   const built = paperRunEvents(input, version.steps, signer)
   if (!built.ok) throw invalid(built.issues)
   const enteredAt = new Date()
-  await withWriteRetry(() => db.transaction(async (tx) => {
+  try {
+    await storePaperRun(user, input, { machine, version, operator, signer, events: built.events, enteredAt })
+  }
+  catch (error) {
+    // The same sheet sent twice at once: the other request stored it.
+    if (!duplicateKey(error)) throw error
+    const [row] = await db.select({ shopId: tables.runs.shopId, origin: tables.runs.origin }).from(tables.runs).where(eq(tables.runs.id, input.runId)).limit(1)
+    if (row?.shopId === user.shopId && row.origin === 'paper') return { runId: input.runId, created: false }
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'That run id is already used; reload the form.' })
+  }
+  return { runId: input.runId, created: true }
+}
+
+type Found = Awaited<ReturnType<typeof lookUp>>
+
+async function storePaperRun(user: ShopUser, input: PaperRun, p: Found & { events: RunEvent[], enteredAt: Date }) {
+  const { machine, version, operator, signer, events, enteredAt } = p
+  await withWriteRetry(() => useDB().transaction(async (tx) => {
     const t = tx as unknown as DB
     await t.insert(tables.runs).values({
       id: input.runId, shopId: user.shopId, machineId: machine.id, procedureVersionId: version.id, startedBy: operator.id,
       mode: input.mode, startedAt: new Date(input.startedAt), origin: 'paper', enteredBy: user.id, enteredAt,
     })
     // The sheet's events, as a tablet would have sent them
-    await t.insert(tables.runEvents).values(built.events.map(e => eventRow(user.shopId, e)))
-    await refoldRuns(t, user.shopId, [input.runId], built.events.map(e => e.id))
+    await t.insert(tables.runEvents).values(events.map(e => eventRow(user.shopId, e)))
+    await refoldRuns(t, user.shopId, [input.runId], events.map(e => e.id))
     await t.insert(tables.ledgerEntries).values({
-      shopId: user.shopId, eventId: built.events[0]!.id, runId: input.runId, kind: 'entered-from-paper', actorId: user.id,
+      shopId: user.shopId, eventId: events[0]!.id, runId: input.runId, kind: 'entered-from-paper', actorId: user.id,
       machineId: machine.id, procedureId: version.procedureId, stepKey: null, at: enteredAt, receivedAt: enteredAt,
       entryKey: `paper:${input.runId}`,
       detail: {
@@ -92,7 +109,6 @@ export async function enterPaperRun(user: ShopUser, input: PaperRun): Promise<{ 
     })
     await recordAudit(tx, user, 'run.entered-from-paper', 'run', input.runId, { operatorId: operator.id, machineId: machine.id, procedureVersionId: version.id })
   }))
-  return { runId: input.runId, created: true }
 }
 
 /** A run of this shop; another shop's is a 404. */

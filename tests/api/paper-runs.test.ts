@@ -177,6 +177,14 @@ describe('a paper run lands in the record, the Ledger and the due list', () => {
     expect(after.n).toBe(before.n)
   })
 
+  it('the same sheet sent twice at once is stored once', async () => {
+    const body = sheet()
+    const [a, b] = await Promise.all([enter(body), enter(body)])
+    expect([a.status, b.status].sort(), a.text + b.text).toEqual([200, 201])
+    const [[row]] = await db().query<any[]>('select count(*) as n from ledger_entries where run_id = ? and kind = ?', [body.runId, 'entered-from-paper'])
+    expect(row.n).toBe(1)
+  })
+
   it('the photo of the sheet is filed with the run', async () => {
     const uploadId = uuidv7()
     const cookie = await as('trainer')
