@@ -1,3 +1,4 @@
+import AxeBuilder from '@axe-core/playwright'
 import { expect, test } from '@playwright/test'
 import { signIn } from './helpers'
 
@@ -11,6 +12,9 @@ test('a trainer enters a paper run and finds it on the record', async ({ page })
   await page.getByRole('navigation', { name: 'Screens' }).getByRole('link', { name: 'Ledger' }).click()
   await page.getByRole('link', { name: 'Enter a paper run' }).click()
   await expect(page.getByRole('heading', { level: 1, name: 'Enter a paper run' })).toBeVisible()
+  // WCAG 2.2 AA as axe-core checks it: no serious or critical finding on the form.
+  const axe = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze()
+  expect(axe.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => v.id)).toEqual([])
 
   // Nothing chosen: the server's reasons, each naming what is missing.
   await page.getByRole('button', { name: 'Save the paper run' }).click()
