@@ -30,7 +30,11 @@ export const pwa: Partial<ModuleOptions> = {
     ],
   },
   workbox: {
-    globPatterns: ['**/*.{js,css,woff2,png,svg,ico,webmanifest}', 'shell/index.html'],
+    // woff: the fonts the printed sheet embeds; wasm: the QR reader of "Scan a machine tag" where
+    // the browser has no BarcodeDetector (issue 17).
+    globPatterns: ['**/*.{js,css,woff,woff2,wasm,png,svg,ico,webmanifest}', 'shell/index.html'],
+    // The QR reader's WASM is about 1.1 MB; workbox skips files over 2 MB by default.
+    maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
     cleanupOutdatedCaches: true,
     // The first install takes over open pages at once; later versions wait for the prompt.
     clientsClaim: true,

@@ -6,6 +6,7 @@ import { LEDGER_ENTRY_KINDS } from '../../shared/runs/ledger-kinds'
 import { BOARD_READING_KINDS, DWELL_UNITS, RUN_MODES, RUN_STATUSES, SPINDLE_KINDS, TOOL_KINDS, UNITS } from '../../shared/rules/enums'
 import { ROLES } from '../../shared/types/roles'
 import { STEP_KINDS } from '../../shared/procedures/schema'
+import { PAPER_SIZES, RUN_ORIGINS } from '../../shared/paper/sizes'
 
 // One schema for the whole product. Table and column names are snake_case plurals (STYLE §4);
 // every row that belongs to a shop carries shop_id so each query can be scoped to one shop.
@@ -20,6 +21,8 @@ export const shops = mysqlTable('shops', {
   id: int('id').autoincrement().primaryKey(),
   name: varchar('name', { length: 120 }).notNull(),
   units: mysqlEnum('units', UNITS).notNull().default('mm'),
+  // Printed procedure sheets: ISO 216 A4 or ANSI Letter, whichever the shop's printers take.
+  paperSize: mysqlEnum('paper_size', PAPER_SIZES).notNull().default('a4'),
   createdAt: createdAt(),
 })
 
@@ -142,6 +145,12 @@ export const runs = mysqlTable('runs', {
   spindleMinutes: double('spindle_minutes').notNull().default(0),
   startedAt: timestamp('started_at', { fsp: 3 }).notNull(),
   finishedAt: timestamp('finished_at', { fsp: 3 }),
+  // A run done on a printed sheet and entered afterwards (server/utils/paper-run.ts): who
+  // entered it, when, and the photo of the sheet. Its events are ordinary run events.
+  origin: mysqlEnum('origin', RUN_ORIGINS).notNull().default('tablet'),
+  enteredBy: int('entered_by').references(() => users.id),
+  enteredAt: timestamp('entered_at', { fsp: 3 }),
+  sheetUploadId: varchar('sheet_upload_id', { length: 64 }),
   updatedAt: updatedAt(),
 }, t => [
   index('runs_shop_status_idx').on(t.shopId, t.status),

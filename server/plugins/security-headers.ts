@@ -9,7 +9,9 @@ import buildScriptHashes from '#jogwise-csp-hashes'
 // injected style cannot run code.
 const POLICY: Record<string, string[]> = {
   'default-src': ['\'self\''],
-  'script-src': ['\'self\''],
+  // 'wasm-unsafe-eval' lets WebAssembly compile (the QR reader of "Scan a machine tag", served
+  // from our own origin, issue 17); it does not allow eval or new Function.
+  'script-src': ['\'self\'', '\'wasm-unsafe-eval\''],
   'style-src': ['\'self\'', '\'unsafe-inline\''],
   // blob: for photos the camera just took, data: for small images inlined by the build
   'img-src': ['\'self\'', 'blob:', 'data:'],

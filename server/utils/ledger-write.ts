@@ -17,7 +17,8 @@ import { keySortedJson } from '#shared/rules/json'
 //   backdated row, for the owner to look at.
 
 export interface FoldedRun {
-  run: { id: string, machineId: number }
+  /** paper: set for a run done on a printed sheet and entered later (paper-run.ts). */
+  run: { id: string, machineId: number, paper?: { enteredBy: number | null, enteredAt: string | null } | null }
   procedureId: number
   state: RunState
   steps: readonly ProcedureStep[]
@@ -31,7 +32,8 @@ export interface FoldedRun {
 export const BACKDATE_TOLERANCE_MS = 60_000
 
 type Row = typeof tables.ledgerEntries.$inferInsert
-const SELF_WRITTEN: readonly LedgerEntryKind[] = ['entry-changed', 'backdated']
+// entered-from-paper is written once by the paper-run route, never from the fold.
+const SELF_WRITTEN: readonly LedgerEntryKind[] = ['entry-changed', 'backdated', 'entered-from-paper']
 
 // Key-sorted JSON, so a detail read back from the database compares equal to a fresh one.
 const stable = keySortedJson
@@ -89,7 +91,9 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
   const changes: { old: typeof existing[number], now: Row | null, base: { shopId: number, runId: string, machineId: number, procedureId: number } }[] = []
   for (const f of folded) {
     const base = { shopId, runId: f.run.id, machineId: f.run.machineId, procedureId: f.procedureId }
+    // Every entry of a paper run says so, with who entered it and when.
     const drafts: LedgerEntryDraft[] = ledgerEntriesOf(f.state, f.steps)
+      .map(d => (f.run.paper ? { ...d, detail: { ...d.detail, fromPaper: f.run.paper } } : d))
     const seen = new Set<string>()
     for (const d of drafts) {
       const k = keyOf(d.eventId, d.kind)

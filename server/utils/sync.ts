@@ -429,8 +429,13 @@ function refuseUnstorableNumbers(value: unknown, depth = 0): void {
 // arrivedIds: the events this batch stored, so the Ledger can say which of them changed the record.
 export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = []) {
   if (!runIds.length) return
-  const runs = await db.select({ id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId })
-    .from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
+  const runRows = await db.select({
+    id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId,
+    origin: tables.runs.origin, enteredBy: tables.runs.enteredBy, enteredAt: tables.runs.enteredAt,
+  }).from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
+  const runs = runRows.map(({ origin, enteredBy, enteredAt, ...r }) => ({
+    ...r, paper: origin === 'paper' ? { enteredBy, enteredAt: enteredAt?.toISOString() ?? null } : null,
+  }))
   const versions = await loadVersions(shopId, [...new Set(runs.map(r => r.procedureVersionId))], db)
   // Read once for the fold and the Ledger both (receivedAt is the Ledger's)
   const rows = await db.select({ ...storedColumns, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)

@@ -15,6 +15,8 @@ export const LEDGER_ENTRY_KINDS = [
   'backdated',
   // A sign-off whose sealed PIN or password failed the server's check at merge (kept, not counted).
   'signoff-failed',
+  // A run done on a printed sheet and entered afterwards by a trainer or the owner.
+  'entered-from-paper',
 ] as const
 export type LedgerEntryKind = typeof LEDGER_ENTRY_KINDS[number]
 
@@ -29,4 +31,5 @@ export const LEDGER_KIND_LABELS: Record<LedgerEntryKind, string> = {
   'entry-changed': 'Earlier entry changed',
   'backdated': 'Dated before delivered events',
   'signoff-failed': 'Sign-off failed its check',
+  'entered-from-paper': 'Entered from paper',
 }

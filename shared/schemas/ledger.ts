@@ -83,6 +83,12 @@ export type LedgerRunsQuery = z.output<typeof LedgerRunsQuerySchema>
 
 /** One line saying what an entry is about, the same on the screen and in the CSV. */
 export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unknown>): string {
+  const text = summaryOf(kind, detail)
+  // Entries of a run done on paper say so wherever they are read (table, record, CSV).
+  return detail.fromPaper && kind !== 'entered-from-paper' ? `${text} (Entered from paper.)` : text
+}
+
+function summaryOf(kind: LedgerEntryKind, detail: Record<string, unknown>): string {
   const d = detail as Record<string, any>
   const notCounted = typeof d.notCounted === 'string' ? ` Not counted: ${d.notCounted}` : ''
   switch (kind) {
@@ -95,6 +101,7 @@ export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unkn
     case 'signed-off': return `Signed off ${d.stepTitle ? `"${d.stepTitle}"` : 'the run'}${d.signerRole ? ` as ${d.signerRole}` : ''}.${notCounted}`
     case 'entry-changed': return String(d.reason ?? '')
     case 'backdated': return String(d.reason ?? '')
+    case 'entered-from-paper': return `Run done on paper${d.ranAt ? ` on ${String(d.ranAt).slice(0, 16).replace('T', ' ')} UTC` : ''} by ${d.operatorName ?? 'the person named'}, entered ${d.enteredAt ? `on ${String(d.enteredAt).slice(0, 16).replace('T', ' ')} UTC ` : ''}by ${d.enteredByName ?? 'a trainer or the owner'}${d.sheetUploadId ? ' (photo of the sheet kept)' : ''}.`
     default: return String(d.reason ?? '')
   }
 }

@@ -179,7 +179,7 @@ beforeAll(async () => {
   if (started.body.accepted?.length !== 1) throw new Error(started.text)
   Object.assign(ids, {
     'machines': String(machines[0].id), 'procedures': String(procedures[0].id), 'procedure-versions': String(procedures[0].current.id),
-    'users': String(operator.id), 'runs': runId, 'uploads': crypto.randomUUID(),
+    'users': String(operator.id), 'runs': runId, 'uploads': crypto.randomUUID(), 'paper-runs': runId,
   })
   before = await snapshot()
 }, 60_000)

@@ -363,7 +363,7 @@ describe('Low: headers and health', () => {
     const { createHash } = await import('node:crypto')
     const injected = createHash('sha256').update('alert(document.cookie)').digest('base64')
     expect(policy).not.toContain(injected)
-    expect(policy).toMatch(/script-src 'self'( 'sha256-[\w+/=]+')+;/)
+    expect(policy).toMatch(/script-src 'self' 'wasm-unsafe-eval'( 'sha256-[\w+/=]+')+;/)
   })
 
   it('sends Strict-Transport-Security over HTTPS only', async () => {

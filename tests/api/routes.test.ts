@@ -54,6 +54,10 @@ const ROUTES: Record<string, Row> = {
   'GET /api/plans/[id]': { allowed: everyone, probe: () => ({ path: '/api/plans/999999999' }), okStatus: 404 },
   // An empty photo to a fresh id: allowed roles get 400 and nothing is stored.
   'PUT /api/uploads/[id]': { allowed: everyone, probe: c => ({ path: `/api/uploads/${crypto.randomUUID()}?runId=${c.runId}` }), okStatus: 400, crossShop: true },
+  'POST /api/paper-runs': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/paper-runs', body: {} }), okStatus: 400 },
+  'PUT /api/paper-runs/[id]/sheet': { allowed: ['owner', 'trainer'], probe: c => ({ path: `/api/paper-runs/${c.runId}/sheet`, body: {} }), okStatus: 400, crossShop: true },
+  'GET /api/shop': { allowed: everyone, probe: () => ({ path: '/api/shop' }), okStatus: 200 },
+  'PATCH /api/shop': { allowed: ['owner'], probe: () => ({ path: '/api/shop', body: {} }), okStatus: 400 },
   'GET /api/uploads/[id]': { allowed: everyone, probe: () => ({ path: `/api/uploads/${crypto.randomUUID()}` }), okStatus: 404 },
   'GET /api/invites': { allowed: ['owner'], probe: () => ({ path: '/api/invites' }), okStatus: 200 },
   'POST /api/invites': { allowed: ['owner'], probe: () => ({ path: '/api/invites', body: {} }), okStatus: 400 },

@@ -55,7 +55,7 @@ test('the app runs under its Content-Security-Policy with no violation', async (
 
   // The prerendered shell (what the service worker serves offline) boots under its own header.
   const shell = await page.request.get('/shell')
-  expect(shell.headers()['content-security-policy']).toMatch(/script-src 'self' 'sha256-/)
+  expect(shell.headers()['content-security-policy']).toMatch(/script-src 'self' 'wasm-unsafe-eval' 'sha256-/)
   await page.goto('/shell')
   await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
 

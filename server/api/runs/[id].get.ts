@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
   // The run's events in the order the server stored them
   const rows = await db.select().from(tables.runEvents).where(and(eq(tables.runEvents.runId, id), eq(tables.runEvents.shopId, user.shopId))).orderBy(asc(tables.runEvents.seq))
   // Names of everyone who acted or signed in this run, for the record
-  const ids = new Set<number>([run.startedBy, ...rows.map(r => r.actorId)])
+  const ids = new Set<number>([run.startedBy, ...rows.map(r => r.actorId), ...(run.enteredBy ? [run.enteredBy] : [])])
   for (const r of rows) if (typeof r.payload.signerId === 'number') ids.add(r.payload.signerId)
   const names = await db.select({ id: tables.users.id, name: tables.users.name }).from(tables.users)
     .where(and(eq(tables.users.shopId, user.shopId), inArray(tables.users.id, [...ids])))

@@ -1,0 +1,13 @@
+import { z } from 'zod'
+import { PaperSheetSchema } from '#shared/schemas/paper-run'
+
+const ParamsSchema = z.object({ id: z.uuid() })
+
+// The photo of a paper run's sheet, once uploaded for that run (PUT /api/uploads/:id?runId=).
+export default defineEventHandler(async (event) => {
+  const { id } = paramsValid(event, ParamsSchema)
+  const user = await requireRole(event, 'owner', 'trainer')
+  const run = await findShopRun(user, id)
+  const body = await readValid(event, PaperSheetSchema)
+  return attachPaperSheet(user, run, body.uploadId)
+})
