@@ -17,12 +17,16 @@ const MAX_CLOCK_AHEAD_MS = 24 * 60 * 60 * 1000
 const EARLIEST_EVENT = Date.parse('2020-01-01T00:00:00Z')
 
 interface StoredRow { seq: number, id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, payload: Record<string, unknown>, flag: string | null }
+/** A stored event as the fold and the Ledger read it. */
+type FoldRow = Omit<StoredRow, 'seq'> & { receivedAt: Date }
+/** A run whose row and stored events the caller already has (a fresh run, freshRows). */
+interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[] }
 
 export function toServerEvent(row: StoredRow): ServerEvent {
   return { ...row.payload, id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId, seq: row.seq, flag: row.flag }
 }
 
-export function toRunEvent(row: StoredRow): RunEvent {
+export function toRunEvent(row: Omit<StoredRow, 'seq'>): RunEvent {
   return { ...row.payload, id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId } as RunEvent
 }
 
@@ -105,7 +109,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   const nonces: (typeof tables.signoffNonces.$inferInsert)[] = []
   const failedSignoffs: Parameters<typeof enqueueSignoffFailedAlerts>[2] = []
 
-  const sizes = await runSizes(runIds)
+  // A run not stored yet has no events stored either (an event is stored only with its run).
+  const sizes = await runSizes(runIds.filter(id => runsById.has(id)))
 
   const accepted: string[] = []
   const toInsert: RunEvent[] = []
@@ -274,6 +279,24 @@ function insertEventsSql(shopId: number, events: RunEvent[]) {
   return mysql.format('insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ? on duplicate key update id = id', [rows])
 }
 
+/**
+ * The rows one INSERT of a fresh run just stored, as a read would return them: the same JSON
+ * round trip and millisecond time as insertEventsSql, no flag yet, and the statement's own
+ * received_at. Undefined (the caller reads the rows) if the first and last row differ in it.
+ */
+async function freshRows(db: DB, run: typeof tables.runs.$inferInsert, events: RunEvent[]): Promise<Map<string, KnownRun> | undefined> {
+  const ends = [events[0]!.id, events.at(-1)!.id]
+  // When the rows arrived
+  const times = await db.select({ receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents).where(inArray(tables.runEvents.id, ends))
+  const receivedAt = times[0]?.receivedAt
+  if (!receivedAt || times.some(t => t.receivedAt.getTime() !== receivedAt.getTime())) return undefined
+  const rows = events.map(e => ({
+    id: e.id, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId, at: new Date(e.at),
+    payload: JSON.parse(JSON.stringify(payloadOf(e))) as Record<string, unknown>, flag: null, receivedAt,
+  }))
+  return new Map([[run.id, { run: { id: run.id, machineId: run.machineId, procedureVersionId: run.procedureVersionId }, rows }]])
+}
+
 /** Why a run's new events could not be stored; the message goes back to the tablet. */
 class Unstorable extends Error {}
 
@@ -299,7 +322,13 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
     const done: RunEvent[] = []
     await tx.transaction(async (sp) => {
       const db = sp as unknown as DB
-      if (newRun) await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+      // A run row this savepoint creates has no events but the ones stored below: another merge
+      // of the same new run waits on the row's key until this transaction ends.
+      let fresh = false
+      if (newRun) {
+        const [created] = await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+        fresh = created.affectedRows === 1
+      }
       const rowOf = (e: RunEvent) => ({
         id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
         at: new Date(e.at), payload: payloadOf(e),
@@ -308,11 +337,14 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       // most of the merge's time, issue 14). Only when MariaDB refuses it are the events tried
       // one by one below, so the one it refuses is named and the others are stored.
       let together = false
+      // Every row new (none was a duplicate id): what is stored is exactly these events.
+      let allNew = false
       if (batch.length > 1) {
         try {
           await db.transaction(async (all) => {
             // These events' rows; a duplicate id changes nothing
-            await (all as unknown as DB).execute(sql.raw(insertEventsSql(user.shopId, batch)))
+            const [result] = await (all as unknown as DB).execute(sql.raw(insertEventsSql(user.shopId, batch)))
+            allNew = (result as { affectedRows?: number }).affectedRows === batch.length
           })
           done.push(...batch)
           together = true
@@ -337,7 +369,10 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         }
       }
       if (!done.length) return
-      await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id))
+      // A fresh run stored in one statement is folded from these events as stored, not read back
+      // (issue 14): all its rows share the time of the one INSERT that stored them.
+      const known = fresh && allNew ? await freshRows(db, newRun!, done) : undefined
+      await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
     })
@@ -429,15 +464,23 @@ function refuseUnstorableNumbers(value: unknown, depth = 0): void {
 
 /** Folds runs from their stored events and writes back the run summary and event flags. */
 // arrivedIds: the events this batch stored, so the Ledger can say which of them changed the record.
-export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = []) {
+export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = [], known?: Map<string, KnownRun>) {
   if (!runIds.length) return
-  const runs = await db.select({ id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId })
-    .from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
+  const toRead = runIds.filter(id => !known?.has(id))
+  const runs = toRead.length
+    ? await db.select({ id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId })
+      .from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, toRead)))
+    : []
+  for (const id of runIds) if (known?.has(id)) runs.push(known.get(id)!.run)
   const versions = await loadVersions(shopId, [...new Set(runs.map(r => r.procedureVersionId))], db)
-  // Read once for the fold and the Ledger both (receivedAt is the Ledger's)
-  const rows = await db.select({ ...storedColumns, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
-    .where(and(eq(tables.runEvents.shopId, shopId), inArray(tables.runEvents.runId, runIds)))
-  const byRun = new Map<string, StoredRow[]>()
+  // Read once for the fold and the Ledger both (receivedAt is the Ledger's); runs whose rows
+  // the caller knows are not read again.
+  const rows: FoldRow[] = toRead.length
+    ? await db.select({ ...storedColumns, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
+      .where(and(eq(tables.runEvents.shopId, shopId), inArray(tables.runEvents.runId, toRead)))
+    : []
+  for (const id of runIds) rows.push(...known?.get(id)?.rows ?? [])
+  const byRun = new Map<string, FoldRow[]>()
   for (const row of rows) (byRun.get(row.runId) ?? byRun.set(row.runId, []).get(row.runId)!).push(row)
 
   const folded: FoldedRun[] = []
