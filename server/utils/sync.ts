@@ -280,19 +280,23 @@ function insertEventsSql(shopId: number, events: RunEvent[]) {
 }
 
 /**
- * The rows one INSERT of a fresh run just stored, as a read would return them: the same JSON
- * round trip and millisecond time as insertEventsSql, no flag yet, and the statement's own
- * received_at. Undefined (the caller reads the rows) if the first and last row differ in it.
+ * The rows of a run this batch starts, as a read would return them (the same JSON round trip
+ * and millisecond time as insertEventsSql, no flag yet), when the run holds exactly the rows
+ * that one INSERT just stored: as many rows as events, all with that statement's received_at.
+ * Otherwise (a duplicate id, another merge of the same run) undefined, and the caller reads.
  */
-async function freshRows(db: DB, run: typeof tables.runs.$inferInsert, events: RunEvent[]): Promise<Map<string, KnownRun> | undefined> {
-  const ends = [events[0]!.id, events.at(-1)!.id]
-  // When the rows arrived
-  const times = await db.select({ receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents).where(inArray(tables.runEvents.id, ends))
-  const receivedAt = times[0]?.receivedAt
-  if (!receivedAt || times.some(t => t.receivedAt.getTime() !== receivedAt.getTime())) return undefined
-  const rows = events.map(e => ({
-    id: e.id, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId, at: new Date(e.at),
-    payload: JSON.parse(JSON.stringify(payloadOf(e))) as Record<string, unknown>, flag: null, receivedAt,
+async function freshRows(db: DB, shopId: number, run: typeof tables.runs.$inferInsert, events: RunEvent[]): Promise<Map<string, KnownRun> | undefined> {
+  const e = tables.runEvents
+  // How many rows the run holds, and when they arrived
+  const [held] = await db.select({ n: count(), oneTime: sql<number | null>`min(${e.receivedAt}) = max(${e.receivedAt})` })
+    .from(e).where(and(eq(e.shopId, shopId), eq(e.runId, run.id)))
+  if (!held || Number(held.n) !== events.length || Number(held.oneTime) !== 1) return undefined
+  const [stored] = await db.select({ receivedAt: e.receivedAt }).from(e).where(eq(e.id, events[0]!.id)).limit(1)
+  const receivedAt = stored?.receivedAt
+  if (!receivedAt) return undefined
+  const rows = events.map(ev => ({
+    id: ev.id, runId: ev.runId, type: ev.type, actorId: ev.actorId, deviceId: ev.deviceId, at: new Date(ev.at),
+    payload: JSON.parse(JSON.stringify(payloadOf(ev))) as Record<string, unknown>, flag: null, receivedAt,
   }))
   return new Map([[run.id, { run: { id: run.id, machineId: run.machineId, procedureVersionId: run.procedureVersionId }, rows }]])
 }
@@ -322,13 +326,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
     const done: RunEvent[] = []
     await tx.transaction(async (sp) => {
       const db = sp as unknown as DB
-      // A run row this savepoint creates has no events but the ones stored below: another merge
-      // of the same new run waits on the row's key until this transaction ends.
-      let fresh = false
-      if (newRun) {
-        const [created] = await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
-        fresh = created.affectedRows === 1
-      }
+      if (newRun) await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
       const rowOf = (e: RunEvent) => ({
         id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
         at: new Date(e.at), payload: payloadOf(e),
@@ -337,14 +335,11 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       // most of the merge's time, issue 14). Only when MariaDB refuses it are the events tried
       // one by one below, so the one it refuses is named and the others are stored.
       let together = false
-      // Every row new (none was a duplicate id): what is stored is exactly these events.
-      let allNew = false
       if (batch.length > 1) {
         try {
           await db.transaction(async (all) => {
             // These events' rows; a duplicate id changes nothing
-            const [result] = await (all as unknown as DB).execute(sql.raw(insertEventsSql(user.shopId, batch)))
-            allNew = (result as { affectedRows?: number }).affectedRows === batch.length
+            await (all as unknown as DB).execute(sql.raw(insertEventsSql(user.shopId, batch)))
           })
           done.push(...batch)
           together = true
@@ -369,9 +364,9 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         }
       }
       if (!done.length) return
-      // A fresh run stored in one statement is folded from these events as stored, not read back
-      // (issue 14): all its rows share the time of the one INSERT that stored them.
-      const known = fresh && allNew ? await freshRows(db, newRun!, done) : undefined
+      // A run this batch starts, stored in one statement, is folded from these events as stored
+      // instead of being read back (issue 14), when freshRows finds it holds just those rows.
+      const known = newRun && together ? await freshRows(db, user.shopId, newRun, done) : undefined
       await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
