@@ -228,3 +228,8 @@ for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
 }
 console.log(`CSV export, one shop with ${(await db.query<any[]>('select count(*) as n from ledger_entries where shop_id = ?', [big.id]))[0][0].n} entries: ${(performance.now() - tBig).toFixed(0)} ms, ${(bytes / 1048576).toFixed(1)} MiB, ${newlines - 1} rows; server peak memory ${before.toFixed(0)} → ${peakMiB().toFixed(0)} MiB`)
 await db.end()
+// Last, the ratio: the slowest first page of the filters against the session-only floor, both
+// taken in the same rounds (the aim is about 6 ms at the server for a first page).
+const floor = pct(times.get('baseline GET /api/me')!, 50)
+const slowest = Math.max(...filters.map(([name]) => pct(times.get(name)!, 50)))
+console.log(`ratio slowest first page p50 / GET /api/me p50: ${(slowest / floor).toFixed(2)} (${slowest.toFixed(1)} ms against ${floor.toFixed(1)} ms; aim about 6 ms)`)

@@ -48,6 +48,11 @@ async function scriptWeight(browser: Browser, url: string, cookies: { name: stri
   const sizes = await Promise.all([...scripts.values()])
   const finalUrl = page.url()
   await context.close()
+  // JOGWISE_BENCH_VERBOSE=1 lists each script, largest first, to see where the weight is.
+  if (process.env.JOGWISE_BENCH_VERBOSE) {
+    const urls = [...scripts.keys()]
+    for (const [i, size] of [...sizes.entries()].sort((a, b) => b[1] - a[1])) console.log(`  ${(size / 1024).toFixed(1).padStart(6)} KB  ${new URL(urls[i]!).pathname}`)
+  }
   return { count: sizes.length, bytes: sizes.reduce((a, b) => a + b, 0), finalUrl }
 }
 

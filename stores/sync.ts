@@ -1,7 +1,7 @@
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import type { RunEvent } from '#shared/runs'
 import type { ServerEvent, SyncResponse } from '#shared/schemas/sync'
-import { MAX_SYNC_EVENTS } from '#shared/schemas/sync'
+import { MAX_SYNC_EVENTS } from '#shared/schemas/sync-limits'
 import { nextDelay } from '~/utils/backoff'
 import { usePhotoQueueStore } from './photo-queue'
 

@@ -4,8 +4,10 @@ import type { H3Event } from 'h3'
 // the client unless a reverse proxy of our own overwrites them, so they count only when
 // NUXT_TRUST_PROXY says Jogwise sits behind one.
 
-export function trustProxy(event?: H3Event) {
-  const flag = String(useRuntimeConfig(event).trustProxy ?? '').trim().toLowerCase()
+// A deployment setting read from the process-wide config: useRuntimeConfig(event) copies the whole
+// config and applies the environment again on every request, a few ms of each sync (issue 14).
+export function trustProxy(_event?: H3Event) {
+  const flag = String(useRuntimeConfig().trustProxy ?? '').trim().toLowerCase()
   return flag === '1' || flag === 'true' || flag === 'yes'
 }
 

@@ -15,12 +15,16 @@ import type { FoldedRun } from './ledger-write'
 const BASE_KEYS = new Set(['id', 'runId', 'type', 'at', 'actorId', 'deviceId'])
 
 interface StoredRow { seq: number, id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, payload: Record<string, unknown>, flag: string | null }
+/** A stored event as the fold and the Ledger read it. */
+type FoldRow = Omit<StoredRow, 'seq'> & { receivedAt: Date }
+/** A run whose row and stored events the caller already has (a fresh run, freshRows). */
+interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[] }
 
 export function toServerEvent(row: StoredRow): ServerEvent {
   return { ...row.payload, id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId, seq: row.seq, flag: row.flag }
 }
 
-export function toRunEvent(row: StoredRow): RunEvent {
+export function toRunEvent(row: Omit<StoredRow, 'seq'>): RunEvent {
   return { ...row.payload, id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId } as RunEvent
 }
 
@@ -103,7 +107,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   const nonces: (typeof tables.signoffNonces.$inferInsert)[] = []
   const failedSignoffs: Parameters<typeof enqueueSignoffFailedAlerts>[2] = []
 
-  const sizes = await runSizes(runIds)
+  // A run not stored yet has no events stored either (an event is stored only with its run).
+  const sizes = await runSizes(runIds.filter(id => runsById.has(id)))
 
   const accepted: string[] = []
   const toInsert: RunEvent[] = []
@@ -272,6 +277,28 @@ function insertEventsSql(shopId: number, events: RunEvent[]) {
   return mysql.format('insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ? on duplicate key update id = id', [rows])
 }
 
+/**
+ * The rows of a run this batch starts, as a read would return them (the same JSON round trip
+ * and millisecond time as insertEventsSql, no flag yet), when the run holds exactly the rows
+ * that one INSERT just stored: as many rows as events, all with that statement's received_at.
+ * Otherwise (a duplicate id, another merge of the same run) undefined, and the caller reads.
+ */
+async function freshRows(db: DB, shopId: number, run: typeof tables.runs.$inferInsert, events: RunEvent[]): Promise<Map<string, KnownRun> | undefined> {
+  const e = tables.runEvents
+  // How many rows the run holds, and when they arrived
+  const [held] = await db.select({ n: count(), oneTime: sql<number | null>`min(${e.receivedAt}) = max(${e.receivedAt})` })
+    .from(e).where(and(eq(e.shopId, shopId), eq(e.runId, run.id)))
+  if (!held || Number(held.n) !== events.length || Number(held.oneTime) !== 1) return undefined
+  const [stored] = await db.select({ receivedAt: e.receivedAt }).from(e).where(eq(e.id, events[0]!.id)).limit(1)
+  const receivedAt = stored?.receivedAt
+  if (!receivedAt) return undefined
+  const rows = events.map(ev => ({
+    id: ev.id, runId: ev.runId, type: ev.type, actorId: ev.actorId, deviceId: ev.deviceId, at: new Date(ev.at),
+    payload: JSON.parse(JSON.stringify(payloadOf(ev))) as Record<string, unknown>, flag: null, receivedAt,
+  }))
+  return new Map([[run.id, { run: { id: run.id, machineId: run.machineId, procedureVersionId: run.procedureVersionId }, rows }]])
+}
+
 /** Why a run's new events could not be stored; the message goes back to the tablet. */
 class Unstorable extends Error {}
 
@@ -335,7 +362,10 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         }
       }
       if (!done.length) return
-      await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id))
+      // A run this batch starts, stored in one statement, is folded from these events as stored
+      // instead of being read back (issue 14), when freshRows finds it holds just those rows.
+      const known = newRun && together ? await freshRows(db, user.shopId, newRun, done) : undefined
+      await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
     })
@@ -427,20 +457,29 @@ function refuseUnstorableNumbers(value: unknown, depth = 0): void {
 
 /** Folds runs from their stored events and writes back the run summary and event flags. */
 // arrivedIds: the events this batch stored, so the Ledger can say which of them changed the record.
-export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = []) {
+export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = [], known?: Map<string, KnownRun>) {
   if (!runIds.length) return
-  const runRows = await db.select({
-    id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId,
-    origin: tables.runs.origin, enteredBy: tables.runs.enteredBy, enteredAt: tables.runs.enteredAt,
-  }).from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, runIds)))
+  const toRead = runIds.filter(id => !known?.has(id))
+  const runRows = toRead.length
+    ? await db.select({
+        id: tables.runs.id, machineId: tables.runs.machineId, procedureVersionId: tables.runs.procedureVersionId,
+        origin: tables.runs.origin, enteredBy: tables.runs.enteredBy, enteredAt: tables.runs.enteredAt,
+      }).from(tables.runs).where(and(eq(tables.runs.shopId, shopId), inArray(tables.runs.id, toRead)))
+    : []
   const runs = runRows.map(({ origin, enteredBy, enteredAt, ...r }) => ({
     ...r, paper: origin === 'paper' ? { enteredBy, enteredAt: enteredAt?.toISOString() ?? null } : null,
   }))
+  // A run this batch started on a tablet (never a paper run, which is stored on its own route)
+  for (const id of runIds) if (known?.has(id)) runs.push({ ...known.get(id)!.run, paper: null })
   const versions = await loadVersions(shopId, [...new Set(runs.map(r => r.procedureVersionId))], db)
-  // Read once for the fold and the Ledger both (receivedAt is the Ledger's)
-  const rows = await db.select({ ...storedColumns, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
-    .where(and(eq(tables.runEvents.shopId, shopId), inArray(tables.runEvents.runId, runIds)))
-  const byRun = new Map<string, StoredRow[]>()
+  // Read once for the fold and the Ledger both (receivedAt is the Ledger's); runs whose rows
+  // the caller knows are not read again.
+  const rows: FoldRow[] = toRead.length
+    ? await db.select({ ...storedColumns, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
+      .where(and(eq(tables.runEvents.shopId, shopId), inArray(tables.runEvents.runId, toRead)))
+    : []
+  for (const id of runIds) rows.push(...known?.get(id)?.rows ?? [])
+  const byRun = new Map<string, FoldRow[]>()
   for (const row of rows) (byRun.get(row.runId) ?? byRun.set(row.runId, []).get(row.runId)!).push(row)
 
   const folded: FoldedRun[] = []

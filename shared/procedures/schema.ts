@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from 'zod/mini'
 import { toIssues, type FieldIssue } from '../schemas/issues'
 import { SIGNAL_WORDS } from './signal-words'
 import { longSentence, MAX_SENTENCE_WORDS, plainTextProblem } from './text'
@@ -8,6 +8,8 @@ export type { FieldIssue } from '../schemas/issues'
 
 // One procedure version: the ordered steps a run follows. Both the Library editor and the
 // server validate with these schemas, so every message names the field and says what to fix.
+// zod/mini: the Run screen loads this file (labels, ranges), and the full zod would be most of
+// its script weight (issue 14).
 
 export const STEP_KINDS = ['instruction', 'hold', 'check', 'photo', 'planner', 'signoff'] as const
 export type StepKind = typeof STEP_KINDS[number]
@@ -51,11 +53,11 @@ interface TextRule {
 // A trimmed plain-text field whose every message starts with the field's label.
 function text(label: string, rule: TextRule) {
   const min = rule.min ?? 1
-  return z.string({ error: iss => iss.input === undefined ? `${label} is required.` : `${label} must be text.` })
-    .trim()
-    .min(min, min <= 1 ? `${label} is required.` : `${label} needs at least ${min} characters.`)
-    .max(rule.max, `${label} must be at most ${rule.max} characters.`)
-    .superRefine((value, ctx) => {
+  return z.string({ error: iss => iss.input === undefined ? `${label} is required.` : `${label} must be text.` }).check(
+    z.trim(),
+    z.minLength(min, min <= 1 ? `${label} is required.` : `${label} needs at least ${min} characters.`),
+    z.maxLength(rule.max, `${label} must be at most ${rule.max} characters.`),
+    z.superRefine((value, ctx) => {
       const plain = plainTextProblem(value)
       if (plain) ctx.addIssue({ code: 'custom', message: `${label} ${plain}.` })
       if (rule.shortSentences) {
@@ -67,7 +69,8 @@ function text(label: string, rule: TextRule) {
           })
         }
       }
-    })
+    }),
+  )
 }
 
 // The same range a reading may have (MAX_READING in shared/runs/events.ts, not imported here
@@ -75,17 +78,17 @@ function text(label: string, rule: TextRule) {
 const MAX_LIMIT = 1_000_000_000
 const finite = (label: string) => z.number({
   error: iss => typeof iss.input === 'number' ? `${label} must be a finite number.` : `${label} must be a number.`,
-}).min(-MAX_LIMIT, `${label} must be at least -${MAX_LIMIT}.`).max(MAX_LIMIT, `${label} must be at most ${MAX_LIMIT}.`)
+}).check(z.gte(-MAX_LIMIT, `${label} must be at least -${MAX_LIMIT}.`), z.lte(MAX_LIMIT, `${label} must be at most ${MAX_LIMIT}.`))
 
 const base = {
-  key: z.string({ error: iss => iss.input === undefined ? 'Step key is required.' : 'Step key must be text.' })
-    .min(1, 'Step key is required.')
-    .max(60, 'Step key must be at most 60 characters.')
-    .regex(STEP_KEY_PATTERN, 'Step key may use only lower-case letters, digits and single hyphens (e.g. "isolate-power").'),
+  key: z.string({ error: iss => iss.input === undefined ? 'Step key is required.' : 'Step key must be text.' }).check(
+    z.minLength(1, 'Step key is required.'),
+    z.maxLength(60, 'Step key must be at most 60 characters.'),
+    z.regex(STEP_KEY_PATTERN, 'Step key may use only lower-case letters, digits and single hyphens (e.g. "isolate-power").')),
   title: text('Step title', { min: 3, max: 100 }),
   body: text('Step text', { max: 800, shortSentences: true }),
   // Extra explanation only trainees see in guided mode; may be empty.
-  guidance: text('Guidance', { min: 0, max: 1500 }).default(''),
+  guidance: z._default(text('Guidance', { min: 0, max: 1500 }), ''),
 }
 
 /** Screens an instruction may send the operator to; the Run screen links there for the run's machine. */
@@ -95,7 +98,7 @@ export type StepScreen = typeof STEP_SCREENS[number]
 export const InstructionStepSchema = z.object({
   ...base,
   kind: z.literal('instruction'),
-  opens: z.enum(STEP_SCREENS, { error: `Screen to open must be one of ${STEP_SCREENS.join(', ')}.` }).optional(),
+  opens: z.optional(z.enum(STEP_SCREENS, { error: `Screen to open must be one of ${STEP_SCREENS.join(', ')}.` })),
 })
 
 export const HoldStepSchema = z.object({
@@ -104,7 +107,7 @@ export const HoldStepSchema = z.object({
   signalWord: z.enum(SIGNAL_WORDS, { error: `Signal word must be one of ${SIGNAL_WORDS.join(', ')}.` }),
   hazard: text('Hazard statement', { min: 10, max: 500, shortSentences: true }),
   avoid: text('How to avoid the hazard', { min: 10, max: 600, shortSentences: true }),
-  needsTrainerSignoff: z.boolean({ error: 'Needs trainer sign-off must be true or false.' }).default(false),
+  needsTrainerSignoff: z._default(z.boolean({ error: 'Needs trainer sign-off must be true or false.' }), false),
 })
 
 export const CheckStepSchema = z.object({
@@ -112,12 +115,12 @@ export const CheckStepSchema = z.object({
   kind: z.literal('check'),
   label: text('Measured value label', { max: 80 }),
   unit: text('Unit', { max: 16 }),
-  min: finite('Lowest allowed value').optional(),
-  max: finite('Highest allowed value').optional(),
-}).refine(s => s.min === undefined || s.max === undefined || s.min <= s.max, {
+  min: z.optional(finite('Lowest allowed value')),
+  max: z.optional(finite('Highest allowed value')),
+}).check(z.refine(s => s.min === undefined || s.max === undefined || s.min <= s.max, {
   path: ['max'],
   message: 'Highest allowed value must not be less than the lowest allowed value.',
-})
+}))
 
 export const PhotoStepSchema = z.object({
   ...base,
@@ -129,7 +132,7 @@ export const PlannerStepSchema = z.object({
   ...base,
   kind: z.literal('planner'),
   // Only the surfacing planner exists; the field leaves room for other computed steps.
-  planner: z.literal('surfacing', { error: 'Planner must be "surfacing".' }).default('surfacing'),
+  planner: z._default(z.literal('surfacing', { error: 'Planner must be "surfacing".' }), 'surfacing'),
 })
 
 export const SignoffStepSchema = z.object({
@@ -155,11 +158,11 @@ export const ProcedureSchema = z.object({
   title: text('Procedure title', { min: 3, max: 120 }),
   summary: text('Summary', { min: 10, max: 600 }),
   category: z.enum(PROCEDURE_CATEGORIES, { error: `Category must be one of ${PROCEDURE_CATEGORIES.join(', ')}.` }),
-  supplementNotice: text('Supplement notice', { min: 20, max: 600 }).default(SUPPLEMENT_NOTICE),
-  steps: z.array(ProcedureStepSchema, { error: 'Steps must be a list.' })
-    .min(1, 'A procedure needs at least one step.')
-    .max(MAX_STEPS, `A procedure may have at most ${MAX_STEPS} steps.`),
-}, { error: 'A procedure must be an object with a title, summary, category and steps.' }).superRefine((p, ctx) => {
+  supplementNotice: z._default(text('Supplement notice', { min: 20, max: 600 }), SUPPLEMENT_NOTICE),
+  steps: z.array(ProcedureStepSchema, { error: 'Steps must be a list.' }).check(
+    z.minLength(1, 'A procedure needs at least one step.'),
+    z.maxLength(MAX_STEPS, `A procedure may have at most ${MAX_STEPS} steps.`)),
+}, { error: 'A procedure must be an object with a title, summary, category and steps.' }).check(z.superRefine((p, ctx) => {
   // Runs refer to steps by key, so a key used twice would make two steps one.
   const steps = p.steps as unknown[]
   const keyOf = (s: unknown) => (typeof s === 'object' && s !== null && typeof (s as { key?: unknown }).key === 'string')
@@ -194,7 +197,7 @@ export const ProcedureSchema = z.object({
   // Also run when some fields are wrong, so a duplicate key is reported in the same pass.
   when: payload => typeof payload.value === 'object' && payload.value !== null
     && Array.isArray((payload.value as { steps?: unknown }).steps),
-})
+}))
 
 export type ProcedureStep = z.output<typeof ProcedureStepSchema>
 export type ProcedureStepInput = z.input<typeof ProcedureStepSchema>

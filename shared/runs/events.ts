@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from 'zod/mini'
 import { v7 as uuidv7 } from 'uuid'
 import { toIssues, type FieldIssue } from '../schemas/issues'
 import { checkedInput, MAX_ID } from '../schemas/input'
@@ -35,21 +35,24 @@ export const RUN_EVENT_TYPES = [
 ] as const
 export type RunEventType = typeof RUN_EVENT_TYPES[number]
 
+// zod/mini, as in shared/schemas/input.ts: the Run screen builds its events with these schemas,
+// and the full zod would be most of its script weight (issue 14). Same checks, same messages.
 const str = (label: string, max: number) =>
-  z.string({ error: iss => iss.input === undefined ? `${label} is required.` : `${label} must be text.` })
-    .trim()
-    .min(1, `${label} is required.`)
-    .max(max, `${label} must be at most ${max} characters.`)
+  z.string({ error: iss => iss.input === undefined ? `${label} is required.` : `${label} must be text.` }).check(
+    z.trim(),
+    z.minLength(1, `${label} is required.`),
+    z.maxLength(max, `${label} must be at most ${max} characters.`),
+  )
 
 const positiveId = (label: string) =>
-  z.number({ error: `${label} must be a number.` }).int(`${label} must be a whole number.`).positive(`${label} must be a positive number.`)
-    .max(MAX_ID, `${label} is not a known id.`)
+  z.number({ error: `${label} must be a number.` }).check(z.int(`${label} must be a whole number.`), z.positive(`${label} must be a positive number.`),
+    z.lte(MAX_ID, `${label} is not a known id.`))
 
 // A reason that goes on the record: an override, an abandoned run.
-const reason = (label: string) => str(label, 1000).superRefine((value, ctx) => {
+const reason = (label: string) => str(label, 1000).check(z.superRefine((value, ctx) => {
   const problem = reasonProblem(value)
   if (problem) ctx.addIssue({ code: 'custom', message: `${label} ${problem}.` })
-})
+}))
 
 const stepKey = str('Step key', 60)
 
@@ -59,7 +62,7 @@ const stepKey = str('Step key', 60)
 export const VERDICT_CODES = ['signoff-failed', 'actor-not-allowed'] as const
 export const VerdictSchema = z.discriminatedUnion('status', [
   z.object({ status: z.literal('verified') }),
-  z.object({ status: z.literal('refused'), code: z.enum(VERDICT_CODES), reason: z.string().max(1000) }),
+  z.object({ status: z.literal('refused'), code: z.enum(VERDICT_CODES), reason: z.string().check(z.maxLength(1000)) }),
 ], { error: 'A verdict is set by the server only.' })
 export type Verdict = z.infer<typeof VerdictSchema>
 
@@ -73,7 +76,7 @@ const base = {
   at: z.iso.datetime({ offset: true, error: 'Event time must be an ISO 8601 date and time with a time zone, e.g. 2025-03-01T08:15:00.000Z.' }),
   actorId: positiveId('Actor id'),
   deviceId: str('Device id', 64),
-  verdict: VerdictSchema.optional(),
+  verdict: z.optional(VerdictSchema),
 }
 
 export const RunStartedSchema = z.object({
@@ -93,18 +96,18 @@ export const ValueRecordedSchema = z.object({
   type: z.literal('value.recorded'),
   stepKey,
   value: z.number({ error: iss => typeof iss.input === 'number' ? 'Value must be a finite number.' : 'Value must be a number.' })
-    .min(-MAX_READING, `Value must be at least -${MAX_READING}.`).max(MAX_READING, `Value must be at most ${MAX_READING}.`),
+    .check(z.gte(-MAX_READING, `Value must be at least -${MAX_READING}.`), z.lte(MAX_READING, `Value must be at most ${MAX_READING}.`)),
   unit: str('Unit', 16),
   // Optional here because an in-range reading needs none; the fold decides whether an
   // out-of-range reading's reason is good enough (reasonProblem).
-  reason: z.string({ error: 'Reason must be text.' }).trim().max(1000, 'Reason must be at most 1000 characters.').optional()
-    .transform(r => (r === undefined || r === '') ? undefined : r),
+  reason: z.pipe(z.optional(z.string({ error: 'Reason must be text.' }).check(z.trim(), z.maxLength(1000, 'Reason must be at most 1000 characters.'))),
+    z.transform(r => (r === undefined || r === '') ? undefined : r)),
 })
 
 export const NoteAddedSchema = z.object({
   ...base,
   type: z.literal('note.added'),
-  stepKey: stepKey.optional(),
+  stepKey: z.optional(stepKey),
   text: str('Note', 2000),
 })
 
@@ -113,15 +116,15 @@ export const PhotoAttachedSchema = z.object({
   type: z.literal('photo.attached'),
   stepKey,
   // Missing while the photo waits in IndexedDB for the network; the note stands in meanwhile.
-  uploadId: str('Upload id', 64).optional(),
-  note: str('Photo note', 500).optional(),
+  uploadId: z.optional(str('Upload id', 64)),
+  note: z.optional(str('Photo note', 500)),
 })
 
 export const PlanAttachedSchema = z.object({
   ...base,
   type: z.literal('plan.attached'),
   stepKey,
-  planId: str('Plan id', 64).optional(),
+  planId: z.optional(str('Plan id', 64)),
   summary: str('Plan summary', 1000),
 })
 
@@ -136,12 +139,12 @@ export const SignoffGivenSchema = z.object({
   ...base,
   type: z.literal('signoff.given'),
   // Absent for a sign-off of the whole run.
-  stepKey: stepKey.optional(),
+  stepKey: z.optional(stepKey),
   signerId: positiveId('Signer id'),
   signerRole: z.enum(SIGNER_ROLES, { error: 'Signer role must be trainer or owner.' }),
   // The signer's secret and what it signs, encrypted to the server's key (signoff-seal.ts).
   // The server opens it at merge and stores the verdict instead; it is never stored.
-  seal: z.string({ error: 'Seal must be text.' }).max(MAX_SEAL_LENGTH, 'Seal is too long.').optional(),
+  seal: z.optional(z.string({ error: 'Seal must be text.' }).check(z.maxLength(MAX_SEAL_LENGTH, 'Seal is too long.'))),
 })
 
 export const EventUndoneSchema = z.object({

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from 'zod/mini'
 import { MAX_CLOCK_AHEAD_MS } from '../rules/clock'
 
 // A trainer's signature on a tablet, also offline. The tablet puts the signer's PIN or
@@ -21,17 +21,18 @@ export const SEAL_LIFETIME_MS = 72 * 60 * 60 * 1000
 /** An online check of a seal must come within this time of its making. */
 export const SEAL_CHECK_WINDOW_MS = 5 * 60 * 1000
 
-export const SealClaimSchema = z.object({
+// zod/mini: the Run screen loads this file to seal, and the full zod is most of its weight (issue 14)
+export const SealClaimSchema = z.strictObject({
   runId: z.uuid(),
   // Null for the sign-off of the whole run.
-  stepKey: z.string().min(1).max(60).nullable(),
-  signerId: z.number().int().positive(),
+  stepKey: z.nullable(z.string().check(z.minLength(1), z.maxLength(60))),
+  signerId: z.number().check(z.int(), z.positive()),
   eventId: z.uuid(),
-  nonce: z.string().regex(/^[A-Za-z0-9_-]{22,64}$/),
+  nonce: z.string().check(z.regex(/^[A-Za-z0-9_-]{22,64}$/)),
   time: z.iso.datetime({ offset: true }),
-  pin: z.string().regex(/^\d{4,8}$/).optional(),
-  password: z.string().min(1).max(200).optional(),
-}).strict().refine(c => (c.pin === undefined) !== (c.password === undefined), { message: 'A seal holds a PIN or a password.' })
+  pin: z.optional(z.string().check(z.regex(/^\d{4,8}$/))),
+  password: z.optional(z.string().check(z.minLength(1), z.maxLength(200))),
+}).check(z.refine(c => (c.pin === undefined) !== (c.password === undefined), { message: 'A seal holds a PIN or a password.' }))
 export type SealClaim = z.infer<typeof SealClaimSchema>
 
 /** What the tablet knows of the server's key (GET /api/signoff-key). */

@@ -1,4 +1,4 @@
-import { z } from 'zod'
+import { z } from 'zod/mini'
 
 // What every input must be before any schema reads it: well-formed text (no lone UTF-16
 // surrogate: MariaDB's JSON check refuses one, utf8mb4 columns mangle it, mail cannot carry it)
@@ -57,8 +57,9 @@ export function inputProblems(value: unknown, skip: readonly string[] = [], path
  * `schema` sees it. `skip` leaves top-level keys to be checked item by item later (a sync
  * batch's events, each refused on its own).
  */
-export function checkedInput<S extends z.ZodType>(schema: S, skip: readonly string[] = []) {
-  return z.unknown().superRefine((value, ctx) => {
+export function checkedInput<S extends z.core.$ZodType>(schema: S, skip: readonly string[] = []) {
+  // zod/mini, so the Run screen's events (shared/runs/events.ts) load without the full zod (issue 14)
+  return z.pipe(z.unknown().check(z.superRefine((value, ctx) => {
     for (const p of inputProblems(value, skip)) ctx.addIssue({ code: 'custom', path: p.path, message: p.message })
-  }).pipe(schema)
+  })), schema)
 }

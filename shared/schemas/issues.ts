@@ -3,7 +3,7 @@ import type { z } from 'zod'
 export interface FieldIssue { path: string, message: string }
 
 /** Turns a zod error into `{ path: 'cutter.diameter', message }` pairs for forms and API answers. */
-export function toIssues(error: z.ZodError): FieldIssue[] {
+export function toIssues(error: z.core.$ZodError): FieldIssue[] {
   return error.issues.map(issue => ({
     path: issue.path.map(String).join('.'),
     message: issue.message,

@@ -1,8 +1,9 @@
 import { z } from 'zod'
 import { MAX_SEAL_LENGTH } from '../runs/signoff-seal'
 import { MAX_ID } from './input'
+import { MAX_SYNC_EVENTS } from './sync-limits'
 
-export const MAX_SYNC_EVENTS = 500
+export { MAX_SYNC_EVENTS }
 
 /**
  * Body of POST /api/sync. Events are checked one by one by the server (one bad event must not
