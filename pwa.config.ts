@@ -30,7 +30,9 @@ export const pwa: Partial<ModuleOptions> = {
     ],
   },
   workbox: {
-    globPatterns: ['**/*.{js,css,woff2,png,svg,ico,webmanifest}', 'shell/index.html'],
+    // The language files (prerendered by the i18n module as /_i18n/<hash>/<locale>/messages.json)
+    // are precached with the screens, so a screen reloads offline in its person's language.
+    globPatterns: ['**/*.{js,css,woff2,png,svg,ico,webmanifest}', 'shell/index.html', '_i18n/**/messages.json'],
     cleanupOutdatedCaches: true,
     // The first install takes over open pages at once; later versions wait for the prompt.
     clientsClaim: true,

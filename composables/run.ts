@@ -1,6 +1,6 @@
 import { foldRun, makeEvent, newRunId, nextAction } from '#shared/runs'
 import type { RunEvent, RunEventPayload, RunEventType, RunMode } from '#shared/runs'
-import type { ProcedureStep } from '#shared/procedures'
+import type { ProcedureStep, Translations } from '#shared/procedures'
 import type { LengthUnit } from '#shared/machining'
 import type { ServerEvent } from '#shared/schemas/sync'
 
@@ -8,7 +8,7 @@ import type { ServerEvent } from '#shared/schemas/sync'
 // and the events still waiting in the queue, folded by shared/runs. The Run screen only renders
 // this state and appends events; it never decides rules itself.
 
-export interface RunVersion { id: number, procedureId: number, version: number, title: string, summary: string, steps: ProcedureStep[] }
+export interface RunVersion { id: number, procedureId: number, version: number, title: string, summary: string, steps: ProcedureStep[], translations?: Translations }
 export interface RunSnapshot {
   runId: string
   machineId: number

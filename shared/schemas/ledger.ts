@@ -84,14 +84,16 @@ export type LedgerRunsQuery = z.output<typeof LedgerRunsQuerySchema>
 export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unknown>): string {
   const d = detail as Record<string, any>
   const notCounted = typeof d.notCounted === 'string' ? ` Not counted: ${d.notCounted}` : ''
+  // Which language's text was on screen (issue 16); older entries have none.
+  const shown = typeof d.lang === 'string' ? ` Text on screen: ${d.lang}.` : ''
   switch (kind) {
     case 'override': return `Override reason: ${d.reason ?? ''}${notCounted}`
     case 'late-past-hold': return String(d.reason ?? '')
     case 'out-of-range': return `${d.value} ${d.unit} is ${d.side} the range${d.range ? ` (${d.range})` : ''}; reason: ${d.reason ?? 'none given'}`
     case 'skipped-check': return String(d.reason ?? '')
     case 'signoff-failed': return String(d.reason ?? '')
-    case 'hold-acknowledged': return `Acknowledged the ${d.signalWord ? `${d.signalWord} ` : ''}hold.${notCounted}`
-    case 'signed-off': return `Signed off ${d.stepTitle ? `"${d.stepTitle}"` : 'the run'}${d.signerRole ? ` as ${d.signerRole}` : ''}.${notCounted}`
+    case 'hold-acknowledged': return `Acknowledged the ${d.signalWord ? `${d.signalWord} ` : ''}hold.${shown}${notCounted}`
+    case 'signed-off': return `Signed off ${d.stepTitle ? `"${d.stepTitle}"` : 'the run'}${d.signerRole ? ` as ${d.signerRole}` : ''}.${shown}${notCounted}`
     case 'entry-changed': return String(d.reason ?? '')
     case 'backdated': return String(d.reason ?? '')
     default: return String(d.reason ?? '')
