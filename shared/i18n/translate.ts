@@ -32,7 +32,8 @@ function templatesOf(english: MessageTree): Template[] {
     const source = text.split(/\{(\w+)\}/).map((part, i) => {
       if (i % 2 === 0) return escapeRe(part)
       names.push(part)
-      return '([\\s\\S]+?)'
+      // {rest}: an optional tail (" Not counted: …"); every other value has some text.
+      return part === 'rest' ? '([\\s\\S]*?)' : '([\\s\\S]+?)'
     }).join('')
     return { key, re: new RegExp(`^${source}$`), names }
   })
@@ -72,12 +73,12 @@ export function translateText(text: string, english: MessageTree, target: Messag
     if (template === undefined) return text
     return template.replace(/\{(\w+)\}/g, (_, name: string) => {
       const value = found.values[name] ?? ''
-      return depth < 2 ? translateText(value, english, target, depth + 1) : value
+      return depth < 4 ? translateText(value, english, target, depth + 1) : value
     })
   }
   // "cutter.diameter: message" (the first issue repeated in an error's message)
   const field = /^([\w.[\]-]+): ([\s\S]+)$/.exec(text)
-  if (field && depth < 2) return `${field[1]}: ${translateText(field[2]!, english, target, depth + 1)}`
+  if (field && depth < 4) return `${field[1]}: ${translateText(field[2]!, english, target, depth + 1)}`
   return text
 }
 

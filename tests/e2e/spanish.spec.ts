@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs'
 import { expect, test, type Page } from '@playwright/test'
 import { flatten, type MessageTree } from '../../shared/i18n/translate'
-import { pressAndHold, runReady } from './helpers'
+import { hydrated, pressAndHold, runReady } from './helpers'
 
 // The crew's languages in the browser (issue 16): a trainee whose profile says Spanish walks the
 // whole resurfacing run, guided, at 1024×768 and 768×1024. On every screen of the way no English
@@ -61,10 +61,32 @@ async function checkScreen(page: Page, steps: Step[], where: string) {
   expect(await smallTargets(page), `small targets on ${where}`).toEqual([])
 }
 
+/**
+ * Other tests edit the resurfacing procedure (library.spec.ts publishes a changed step 1), and a
+ * changed step starts untranslated in the new version. As the shop's trainer would, the owner
+ * translates such steps (here from the first version's Spanish) before the walk.
+ */
+async function translateEditedSteps(page: Page) {
+  const list = await (await page.request.get('/api/procedures')).json()
+  const listed = list.find((p: any) => p.slug === 'spoilboard-resurfacing' || p.current.title === 'Resurface the spoilboard')
+  const procedure = await (await page.request.get(`/api/procedures/${listed.id}`)).json()
+  const current = procedure.current
+  const es = current.translations?.es ?? { steps: {} }
+  const missing = current.steps.filter((s: any) => !es.steps[s.key])
+  if (!missing.length) return
+  const first = procedure.history.at(-1)
+  const original = await (await page.request.get(`/api/procedure-versions/${first.id}`)).json()
+  const steps = { ...es.steps }
+  for (const s of missing) steps[s.key] = { ...original.translations.es.steps[s.key], body: `${original.translations.es.steps[s.key].body} Apunta la lectura en el registro de la tabla.` }
+  const res = await page.request.put(`/api/procedure-versions/${current.id}/translations/es`, { data: { ...es, title: es.title ?? original.translations.es.title, steps } })
+  expect(res.ok(), await res.text()).toBe(true)
+}
+
 /** A trainee of their own whose profile says Spanish, signed in on this page. */
 async function spanishTrainee(page: Page, tag: string) {
   const owner = await page.request.post('/api/auth/login', { data: { email: 'owner@demo.jogwise.test', password: process.env.JOGWISE_DEMO_PASSWORD || 'shopfloor-demo-1' } })
   expect(owner.ok()).toBe(true)
+  await translateEditedSteps(page)
   const email = `aprendiz-${tag}-${Date.now()}@demo.jogwise.test`
   const made = await page.request.post('/api/users', { data: { name: 'Marisol Vega', email, role: 'trainee', password: 'aprendiz-demo-1' } })
   expect(made.status(), await made.text()).toBe(201)
@@ -147,6 +169,7 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
     await page.setViewportSize(viewport)
     await spanishTrainee(page, `${viewport.width}`)
     await page.goto('/')
+    await hydrated(page)
     await expect(page.getByRole('heading', { level: 1, name: 'Taller', exact: true })).toBeVisible()
     await expect(page.locator('html')).toHaveAttribute('lang', 'es')
     await checkScreen(page, [], 'the Floor')
@@ -159,11 +182,14 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
     await page.getByRole('button', { name: 'Empezar el trabajo' }).click()
     await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/)
     const runId = page.url().split('/').pop()!
+    // The run's start reaches the server through the tablet's queue.
+    await expect.poll(async () => (await page.request.get(`/api/runs/${runId}`)).status(), { timeout: 30_000 }).toBe(200)
     const version = (await (await page.request.get(`/api/runs/${runId}`)).json()).version as { steps: Step[], translations: { es: { steps: Record<string, Step> } } }
     await expect(page.getByText('Guiado', { exact: true })).toBeVisible()
     await expect(page.getByLabel('Por qué importa este paso')).toBeVisible()
 
     // One tap shows the original English of a step, and one more brings the Spanish back.
+    await runReady(page)
     await page.getByTestId('original-toggle').click()
     await expect(page.getByRole('heading', { level: 1 })).toHaveText(version.steps[0]!.title)
     await page.getByTestId('original-toggle').click()

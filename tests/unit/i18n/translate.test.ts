@@ -38,6 +38,15 @@ describe('translateText', () => {
     expect(translateText('Invalid input: expected number, received string', EN, ES)).toBe('Dato no válido: se esperaba number y llegó string')
   })
 
+  it('translates a Ledger summary with its optional tails', async () => {
+    const { ledgerSummary } = await import('../../../shared/schemas/ledger')
+    expect(translateText(ledgerSummary('hold-acknowledged', { signalWord: 'WARNING', lang: 'es' }), EN, ES))
+      .toBe('Confirmó la parada de ADVERTENCIA. Texto en pantalla: es.')
+    expect(translateText(ledgerSummary('hold-acknowledged', { signalWord: 'NOTICE' }), EN, ES)).toBe('Confirmó la parada de AVISO.')
+    expect(translateText(ledgerSummary('signed-off', { stepTitle: 'Sign off', signerRole: 'trainer', lang: 'es', notCounted: 'Undone by the person who made it.' }), EN, ES))
+      .toBe('Firmó «Sign off» como formador. Texto en pantalla: es. No cuenta: Undone by the person who made it.')
+  })
+
   it('leaves a message nobody translated as it is', () => {
     expect(translateText('Something nobody wrote a template for.', EN, ES)).toBe('Something nobody wrote a template for.')
     expect(matchTemplate('Something nobody wrote a template for.', EN)).toBeUndefined()
