@@ -6,7 +6,7 @@ import withNuxt from './.nuxt/eslint.config.mjs'
 
 export default withNuxt(
   {
-    ignores: ['.data/**', 'drizzle/**', 'public/**', 'test-results/**', 'playwright-report/**'],
+    ignores: ['.data/**', '.output/**', '.output-build/**', 'drizzle/**', 'public/**', 'test-results/**', 'playwright-report/**'],
   },
   {
     rules: {

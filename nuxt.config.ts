@@ -1,6 +1,7 @@
 import { fileURLToPath } from 'node:url'
 import { pwa } from './pwa.config'
 import { cspHashesModule } from './server/build/csp-hashes'
+import { localeFiles, localesModule } from './i18n/locale-list'
 
 // Jogwise keeps Nuxt's folders at the repository root (app.vue, pages/, components/…), so srcDir
 // is '.'; server/, shared/ and public/ are Nuxt's defaults relative to it.
@@ -17,7 +18,20 @@ export default defineNuxtConfig({
     '@vueuse/nuxt',
     '@vite-pwa/nuxt',
     '@nuxt/eslint',
+    '@nuxtjs/i18n',
   ],
+  // English and Spanish to start; every file in i18n/locales is a language (i18n/locale-list.ts).
+  // No URL prefix: the tablet keeps the same addresses. Until a person chooses a language (their
+  // profile, plugins/user-language.ts) the browser's language decides, remembered in a cookie.
+  i18n: {
+    strategy: 'no_prefix',
+    defaultLocale: 'en',
+    locales: localeFiles(),
+    detectBrowserLanguage: { useCookie: true, cookieKey: 'jogwise-lang', redirectOn: 'root', fallbackLocale: 'en' },
+    // The messages files are written into the build output, so the service worker precaches
+    // them and a Spanish screen reloads offline in Spanish (pwa.config.ts).
+    experimental: { prerenderMessages: true },
+  },
   // npm run lint: the project's code style (single quotes, no semicolons), eslint.config.mjs.
   eslint: { config: { stylistic: { quotes: 'single', semi: false, indent: 2, commaDangle: 'always-multiline', braceStyle: 'stroustrup', arrowParens: false } } },
   css: ['~/assets/css/main.css'],
@@ -108,6 +122,8 @@ export default defineNuxtConfig({
       // The prerendered shell exists by the time the server itself is bundled.
       'build:before': (nitro) => {
         nitro.options.virtual['#jogwise-csp-hashes'] = () => cspHashesModule(nitro.options.output.publicDir)
+        // Server errors and e-mails in the caller's language (server/utils/language.ts).
+        nitro.options.virtual['#jogwise-locales'] = () => localesModule()
       },
     },
     compressPublicAssets: true,

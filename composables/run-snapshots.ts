@@ -1,5 +1,5 @@
 import type { LengthUnit } from '#shared/machining'
-import type { ProcedureStep } from '#shared/procedures'
+import type { ProcedureStep, Translations } from '#shared/procedures'
 import type { RunEvent } from '#shared/runs'
 import type { ServerEvent } from '#shared/schemas/sync'
 
@@ -7,7 +7,7 @@ import type { ServerEvent } from '#shared/schemas/sync'
 // events the server holds. It draws the Run screen at once and offline; the sync queue adds
 // every event the server confirms, so a reload offline still shows it.
 
-export interface RunVersion { id: number, procedureId: number, version: number, title: string, summary: string, steps: ProcedureStep[] }
+export interface RunVersion { id: number, procedureId: number, version: number, title: string, summary: string, steps: ProcedureStep[], translations?: Translations }
 export interface RunSnapshot {
   runId: string
   machineId: number

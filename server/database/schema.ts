@@ -36,6 +36,8 @@ export const users = mysqlTable('users', {
   pinHash: varchar('pin_hash', { length: 255 }),
   role: mysqlEnum('role', ROLES).notNull(),
   units: mysqlEnum('units', UNITS),
+  // The person's screen and e-mail language (a file in i18n/locales); null: the browser decides.
+  language: varchar('language', { length: 12 }),
   active: boolean('active').notNull().default(true),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
@@ -102,6 +104,9 @@ export const procedureVersions = mysqlTable('procedure_versions', {
   title: varchar('title', { length: 120 }).notNull(),
   summary: text('summary').notNull(),
   changeNote: varchar('change_note', { length: 500 }),
+  // Translations of this version's text by language, step by step (shared/procedures/translation.ts).
+  // The original never changes; a translation may be written or corrected after publishing.
+  translations: json('translations').$type<Record<string, unknown>>(),
   createdBy: int('created_by').references(() => users.id),
   createdAt: createdAt(),
 }, t => [uniqueIndex('procedure_versions_unique').on(t.procedureId, t.version)])

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import type { Role } from '#shared/types/roles'
 
-export interface ShopUser { id: number, shopId: number, name: string, email: string, role: Role }
+export interface ShopUser { id: number, shopId: number, name: string, email: string, role: Role, language: string | null }
 
 /**
  * The signed-in person, re-read from the database on every call so that a role change or a
@@ -19,12 +19,13 @@ export async function requireShopUser(event: H3Event): Promise<ShopUser> {
   const [row] = await useDB().select({
     id: tables.users.id, shopId: tables.users.shopId, name: tables.users.name,
     email: tables.users.email, role: tables.users.role, active: tables.users.active,
+    language: tables.users.language,
   }).from(tables.users).where(eq(tables.users.id, session.user.id)).limit(1)
   if (!row || !row.active) {
     await clearUserSession(event)
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'This sign-in is no longer valid. Sign in again.' })
   }
-  const user: ShopUser = { id: row.id, shopId: row.shopId, name: row.name, email: row.email, role: row.role }
+  const user: ShopUser = { id: row.id, shopId: row.shopId, name: row.name, email: row.email, role: row.role, language: row.language }
   event.context.shopUser = user
   return user
 }

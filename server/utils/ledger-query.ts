@@ -129,6 +129,8 @@ export function ledgerCsvColumns(timeZone: string) {
     { header: 'Unit', value: r => text(r.detail.unit) },
     { header: 'Allowed range', value: r => text(r.detail.range) },
     { header: 'Signal word', value: r => text(r.detail.signalWord) },
+    // The language of the text on screen at an acknowledgement or sign-off (issue 16).
+    { header: 'Language on screen', value: r => text(r.detail.lang) },
     { header: 'Entry', value: r => r.id },
     { header: 'Revision', value: r => r.revision },
     { header: 'Run', value: r => r.runId },

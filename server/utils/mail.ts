@@ -200,7 +200,7 @@ export async function sendDueMail(now = new Date()): Promise<{ sent: number, fai
 
 export async function activeOwners(db: DB | Tx, shopId: number) {
   // The shop's active owners
-  return db.select({ id: tables.users.id, name: tables.users.name, email: tables.users.email })
+  return db.select({ id: tables.users.id, name: tables.users.name, email: tables.users.email, language: tables.users.language })
     .from(tables.users)
     .where(and(eq(tables.users.shopId, shopId), eq(tables.users.role, 'owner'), eq(tables.users.active, true)))
 }

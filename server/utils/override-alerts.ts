@@ -20,22 +20,28 @@ export async function enqueueOverrideAlerts(tx: Tx, user: ShopUser, events: RunE
   for (const o of overrides) {
     const run = runById.get(o.runId)
     const step = steps.find(s => s.versionId === run?.versionId && s.key === o.stepKey)
-    const signal = typeof step?.settings?.signalWord === 'string' ? `${step.settings.signalWord} ` : ''
-    const hold = step ? `${signal}"${step.title}"` : `step ${o.stepKey}`
-    const machine = run?.machine ?? 'a machine'
+    const word = typeof step?.settings?.signalWord === 'string' ? step.settings.signalWord : null
     const link = `${site}/runs/${o.runId}/record`
-    const text = [
-      `${user.name} (${user.role}) went past a hold point on ${machine}.`,
-      `Hold: ${hold}\nProcedure: ${run?.procedure ?? 'unknown'}\nWhen: ${o.at.replace('T', ' ').slice(0, 19)} UTC (tablet time)\nReason written: "${o.reason}"`,
-      `The run's record: ${link}`,
-    ].join('\n\n')
-    const html = `<p><strong>${escapeHtml(user.name)}</strong> (${escapeHtml(user.role)}) went past a hold point on <strong>${escapeHtml(machine)}</strong>.</p>`
-      + `<p>Hold: ${escapeHtml(hold)}<br>Procedure: ${escapeHtml(run?.procedure ?? 'unknown')}<br>Reason written: &ldquo;${escapeHtml(o.reason)}&rdquo;</p>`
-      + `<p><a href="${escapeHtml(link)}">Open the run's record</a></p>`
+    // Each owner reads the alert in their own language (server/utils/language.ts).
     for (const owner of owners) {
+      const lang = owner.language ?? 'en'
+      const m = (key: string, values: Record<string, string | number> = {}) => messageIn(lang, `mail.${key}`, values)
+      const signal = word ? `${m(`signal.${word}`)} ` : ''
+      const hold = step ? `${signal}"${step.title}"` : m('step', { key: o.stepKey })
+      const machine = run?.machine ?? m('aMachine')
+      const procedure = run?.procedure ?? m('unknown')
+      const role = m(`role.${user.role}`)
+      const text = [
+        m('override.intro', { name: user.name, role, machine }),
+        `${m('hold')}: ${hold}\n${m('procedure')}: ${procedure}\n${m('when')}: ${o.at.replace('T', ' ').slice(0, 19)} ${m('tabletTime')}\n${m('reasonWritten')}: "${o.reason}"`,
+        `${m('record')}: ${link}`,
+      ].join('\n\n')
+      const html = `<p>${m('override.introHtml', { name: `<strong>${escapeHtml(user.name)}</strong>`, role: escapeHtml(role), machine: `<strong>${escapeHtml(machine)}</strong>` })}</p>`
+        + `<p>${m('hold')}: ${escapeHtml(hold)}<br>${m('procedure')}: ${escapeHtml(procedure)}<br>${m('reasonWritten')}: &ldquo;${escapeHtml(o.reason)}&rdquo;</p>`
+        + `<p><a href="${escapeHtml(link)}">${m('openRecord')}</a></p>`
       await enqueueMail(tx, {
         shopId: user.shopId, kind: 'override', dedupeKey: `override:${o.id}:${owner.id}`, to: owner.email,
-        subject: `Hold overridden on ${machine} by ${user.name}`, text, html,
+        subject: m('override.subject', { machine, name: user.name }), text, html,
       })
     }
   }
@@ -74,21 +80,25 @@ export async function enqueueSignoffFailedAlerts(tx: Tx, user: ShopUser, failed:
   for (const { event: e, reason, signerName } of failed) {
     const run = runById.get(e.runId)
     const step = e.stepKey ? steps.find(s => s.versionId === run?.versionId && s.key === e.stepKey) : undefined
-    const what = e.stepKey ? (step ? `step "${step.title}"` : `step ${e.stepKey}`) : 'the whole run'
-    const machine = run?.machine ?? 'a machine'
     const link = `${site}/runs/${e.runId}/record`
-    const text = [
-      `A sign-off in the name of ${signerName} on ${machine} failed its check; the run is flagged and the sign-off does not count.`,
-      `Signed: ${what}\nProcedure: ${run?.procedure ?? 'unknown'}\nEntered by: ${user.name} (${user.role})\nWhen: ${e.at.replace('T', ' ').slice(0, 19)} UTC (tablet time)\nWhy: ${reason}`,
-      `The run's record: ${link}`,
-    ].join('\n\n')
-    const html = `<p>A sign-off in the name of <strong>${escapeHtml(signerName)}</strong> on <strong>${escapeHtml(machine)}</strong> failed its check; the run is flagged and the sign-off does not count.</p>`
-      + `<p>Signed: ${escapeHtml(what)}<br>Procedure: ${escapeHtml(run?.procedure ?? 'unknown')}<br>Entered by: ${escapeHtml(user.name)} (${escapeHtml(user.role)})<br>Why: ${escapeHtml(reason)}</p>`
-      + `<p><a href="${escapeHtml(link)}">Open the run's record</a></p>`
     for (const owner of owners) {
+      const lang = owner.language ?? 'en'
+      const m = (key: string, values: Record<string, string | number> = {}) => messageIn(lang, `mail.${key}`, values)
+      const what = e.stepKey ? (step ? m('stepTitled', { title: step.title }) : m('step', { key: e.stepKey })) : m('wholeRun')
+      const machine = run?.machine ?? m('aMachine')
+      const procedure = run?.procedure ?? m('unknown')
+      const role = m(`role.${user.role}`)
+      const text = [
+        m('signoffFailed.intro', { name: signerName, machine }),
+        `${m('signed')}: ${what}\n${m('procedure')}: ${procedure}\n${m('enteredBy')}: ${user.name} (${role})\n${m('when')}: ${e.at.replace('T', ' ').slice(0, 19)} ${m('tabletTime')}\n${m('why')}: ${reason}`,
+        `${m('record')}: ${link}`,
+      ].join('\n\n')
+      const html = `<p>${m('signoffFailed.intro', { name: `<strong>${escapeHtml(signerName)}</strong>`, machine: `<strong>${escapeHtml(machine)}</strong>` })}</p>`
+        + `<p>${m('signed')}: ${escapeHtml(what)}<br>${m('procedure')}: ${escapeHtml(procedure)}<br>${m('enteredBy')}: ${escapeHtml(user.name)} (${escapeHtml(role)})<br>${m('why')}: ${escapeHtml(reason)}</p>`
+        + `<p><a href="${escapeHtml(link)}">${m('openRecord')}</a></p>`
       await enqueueMail(tx, {
         shopId: user.shopId, kind: 'signoff-failed', dedupeKey: `signoff-failed:${e.id}:${owner.id}`, to: owner.email,
-        subject: `Sign-off failed its check on ${machine}`, text, html,
+        subject: m('signoffFailed.subject', { machine }), text, html,
       })
     }
   }

@@ -111,15 +111,6 @@ async function storePaperRun(user: ShopUser, input: PaperRun, p: Found & { event
   }))
 }
 
-/** A run of this shop; another shop's is a 404. */
-export async function findShopRun(user: ShopUser, runId: string) {
-  // The run, only in this shop
-  const [run] = await useDB().select({ id: tables.runs.id, origin: tables.runs.origin }).from(tables.runs)
-    .where(and(eq(tables.runs.id, runId), eq(tables.runs.shopId, user.shopId))).limit(1)
-  if (!run) throw notFound('run')
-  return run
-}
-
 /** Files the photo of the sheet with its paper run (an upload made for that run). */
 export async function attachPaperSheet(user: ShopUser, run: { id: string, origin: string }, uploadId: string) {
   const db = useDB()

@@ -1,5 +1,5 @@
-import { parseProcedure, STARTER_LIBRARY, stepFromRow, stepToRow } from '#shared/procedures'
-import type { Procedure, ProcedureStep } from '#shared/procedures'
+import { carryTranslations, parseProcedure, readTranslations, STARTER_LIBRARY, STARTER_TRANSLATIONS, stepFromRow, stepToRow } from '#shared/procedures'
+import type { Procedure, ProcedureStep, Translations } from '#shared/procedures'
 import type { DB } from './db'
 
 type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
@@ -14,16 +14,27 @@ export interface VersionWithSteps {
   changeNote: string | null
   createdAt: Date
   steps: ProcedureStep[]
+  /** Translations by language (shared/procedures/translation.ts); {} when none. */
+  translations: Translations
 }
 
 /**
  * Writes a new, never-changing version of a procedure and makes it current. Runs keep pointing
  * at the version they started with.
  */
-export async function publishVersion(tx: Tx | DB, args: { shopId: number, procedureId: number, procedure: Procedure, createdBy: number | null, changeNote?: string | null }) {
+export async function publishVersion(tx: Tx | DB, args: { shopId: number, procedureId: number, procedure: Procedure, createdBy: number | null, changeNote?: string | null, translations?: Translations }) {
   const [last] = await tx.select({ v: sql<number>`coalesce(max(${tables.procedureVersions.version}), 0)` })
     .from(tables.procedureVersions).where(eq(tables.procedureVersions.procedureId, args.procedureId))
   const version = Number(last?.v ?? 0) + 1
+  // The translations of the version this one replaces, kept as drafts for unchanged steps
+  const [proc] = await tx.select({ current: tables.procedures.currentVersionId }).from(tables.procedures)
+    .where(eq(tables.procedures.id, args.procedureId)).limit(1)
+  // (a previous version that no longer reads is no reason to refuse the new one)
+  const previous = proc?.current
+    ? (await loadVersions(args.shopId, [proc.current], tx as DB).catch(() => undefined))?.get(proc.current)
+    : undefined
+  const translations = args.translations
+    ?? (previous ? carryTranslations(previous, args.procedure) : {})
   const [{ id: versionId }] = await tx.insert(tables.procedureVersions).values({
     shopId: args.shopId,
     procedureId: args.procedureId,
@@ -31,6 +42,7 @@ export async function publishVersion(tx: Tx | DB, args: { shopId: number, proced
     title: args.procedure.title,
     summary: args.procedure.summary,
     changeNote: args.changeNote ?? null,
+    translations: Object.keys(translations).length ? translations : null,
     createdBy: args.createdBy,
   }).$returningId() as [{ id: number }]
   await tx.insert(tables.procedureSteps).values(args.procedure.steps.map((step, position) => ({ ...stepToRow(step), versionId, position })))
@@ -45,7 +57,8 @@ export async function installStarterLibrary(tx: Tx | DB, shopId: number, created
     const parsed = parseProcedure(starter)
     if (!parsed.ok) throw new Error(`starter procedure ${starter.slug} is invalid: ${parsed.issues[0]?.path} ${parsed.issues[0]?.message}`)
     const [{ id: procedureId }] = await tx.insert(tables.procedures).values({ shopId, slug: starter.slug, category: starter.category }).$returningId() as [{ id: number }]
-    await publishVersion(tx, { shopId, procedureId, procedure: parsed.procedure, createdBy, changeNote: 'Starter library' })
+    // The starter library comes with its Spanish (and any later language's) text.
+    await publishVersion(tx, { shopId, procedureId, procedure: parsed.procedure, createdBy, changeNote: 'Starter library', translations: STARTER_TRANSLATIONS[starter.slug] ?? {} })
   }
 }
 
@@ -59,6 +72,7 @@ export async function loadVersions(shopId: number, versionIds: number[], db: DB 
     id: tables.procedureVersions.id, procedureId: tables.procedureVersions.procedureId, version: tables.procedureVersions.version,
     title: tables.procedureVersions.title, summary: tables.procedureVersions.summary, changeNote: tables.procedureVersions.changeNote,
     createdAt: tables.procedureVersions.createdAt, category: tables.procedures.category,
+    translations: tables.procedureVersions.translations,
   }).from(tables.procedureVersions)
     .innerJoin(tables.procedures, eq(tables.procedures.id, tables.procedureVersions.procedureId))
     .where(and(eq(tables.procedureVersions.shopId, shopId), inArray(tables.procedureVersions.id, versionIds)))
@@ -67,7 +81,8 @@ export async function loadVersions(shopId: number, versionIds: number[], db: DB 
   const steps = await db.select().from(tables.procedureSteps)
     .where(inArray(tables.procedureSteps.versionId, versions.map(v => v.id)))
     .orderBy(asc(tables.procedureSteps.versionId), asc(tables.procedureSteps.position))
-  for (const v of versions) out.set(v.id, { ...v, steps: [] })
+  // A translation that no longer passes its schema is left out rather than break the version.
+  for (const v of versions) out.set(v.id, { ...v, translations: readTranslations(v.translations), steps: [] })
   for (const row of steps) {
     const parsed = stepFromRow({ ...row, settings: row.settings ?? null })
     if (!parsed.ok) throw createError({ statusCode: 500, statusMessage: 'Stored step is invalid', message: `Step ${row.key} of version ${row.versionId} no longer passes its checks: ${parsed.issues[0]?.message}` })

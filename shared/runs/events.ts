@@ -2,6 +2,7 @@ import { z } from 'zod/mini'
 import { v7 as uuidv7 } from 'uuid'
 import { toIssues, type FieldIssue } from '../schemas/issues'
 import { checkedInput, MAX_ID } from '../schemas/input'
+import { LANGUAGE_CODE, LANGUAGE_CODE_MESSAGE } from '../rules/language'
 import { reasonProblem } from '../procedures/text'
 import type { Role } from '../types/roles'
 import { MAX_SEAL_LENGTH } from './signoff-seal'
@@ -89,7 +90,11 @@ export const RunStartedSchema = z.object({
 
 export const StepDoneSchema = z.object({ ...base, type: z.literal('step.done'), stepKey })
 
-export const HoldAcknowledgedSchema = z.object({ ...base, type: z.literal('hold.acknowledged'), stepKey })
+// Which language's text was on the screen when the hold was acknowledged or the work signed
+// (issue 16): a locale code such as "es". Absent on events from before languages existed.
+const lang = z.optional(z.string({ error: 'Language must be text.' }).check(z.regex(LANGUAGE_CODE, LANGUAGE_CODE_MESSAGE)))
+
+export const HoldAcknowledgedSchema = z.object({ ...base, type: z.literal('hold.acknowledged'), stepKey, lang })
 
 export const ValueRecordedSchema = z.object({
   ...base,
@@ -140,6 +145,7 @@ export const SignoffGivenSchema = z.object({
   type: z.literal('signoff.given'),
   // Absent for a sign-off of the whole run.
   stepKey: z.optional(stepKey),
+  lang,
   signerId: positiveId('Signer id'),
   signerRole: z.enum(SIGNER_ROLES, { error: 'Signer role must be trainer or owner.' }),
   // The signer's secret and what it signs, encrypted to the server's key (signoff-seal.ts).

@@ -51,6 +51,8 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
     const step = key ? stepByKey.get(key) : undefined
     return step?.kind === 'hold' ? step.signalWord : null
   }
+  // The language of the text on screen, when the tablet said (issue 16).
+  const langOf = (p: Record<string, any>) => (typeof p.lang === 'string' ? { lang: p.lang } : {})
   const undone = new Set(state.undoneIds)
   // Overrides, acknowledgements and sign-offs: the counted ones, then the refused ones.
   const routine = (e: RunEvent, notCounted: { code: string, message: string } | null) => {
@@ -62,13 +64,13 @@ export function ledgerEntriesOf(state: RunState, steps: readonly ProcedureStep[]
       out.push({ ...base, kind: 'override', detail: { stepTitle: titleOf(stepKey), reason: String(p.reason ?? '').trim(), signalWord: signalWordOf(stepKey), ...why } })
     }
     else if (e.type === 'hold.acknowledged') {
-      out.push({ ...base, kind: 'hold-acknowledged', detail: { stepTitle: titleOf(stepKey), signalWord: signalWordOf(stepKey), ...why } })
+      out.push({ ...base, kind: 'hold-acknowledged', detail: { stepTitle: titleOf(stepKey), signalWord: signalWordOf(stepKey), ...langOf(p), ...why } })
     }
     else if (e.type === 'signoff.given') {
       // The signer is the person who signed; the person whose tablet sent it is kept beside.
       out.push({
         ...base, kind: 'signed-off', actorId: typeof p.signerId === 'number' ? p.signerId : e.actorId,
-        detail: { stepTitle: stepKey ? titleOf(stepKey) : 'The whole run', signerId: p.signerId ?? null, signerRole: p.signerRole ?? null, sentBy: e.actorId, ...why },
+        detail: { stepTitle: stepKey ? titleOf(stepKey) : 'The whole run', signerId: p.signerId ?? null, signerRole: p.signerRole ?? null, sentBy: e.actorId, ...langOf(p), ...why },
       })
     }
   }

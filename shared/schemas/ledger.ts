@@ -91,14 +91,16 @@ export function ledgerSummary(kind: LedgerEntryKind, detail: Record<string, unkn
 function summaryOf(kind: LedgerEntryKind, detail: Record<string, unknown>): string {
   const d = detail as Record<string, any>
   const notCounted = typeof d.notCounted === 'string' ? ` Not counted: ${d.notCounted}` : ''
+  // Which language's text was on screen (issue 16); older entries have none.
+  const shown = typeof d.lang === 'string' ? ` Text on screen: ${d.lang}.` : ''
   switch (kind) {
     case 'override': return `Override reason: ${d.reason ?? ''}${notCounted}`
     case 'late-past-hold': return String(d.reason ?? '')
     case 'out-of-range': return `${d.value} ${d.unit} is ${d.side} the range${d.range ? ` (${d.range})` : ''}; reason: ${d.reason ?? 'none given'}`
     case 'skipped-check': return String(d.reason ?? '')
     case 'signoff-failed': return String(d.reason ?? '')
-    case 'hold-acknowledged': return `Acknowledged the ${d.signalWord ? `${d.signalWord} ` : ''}hold.${notCounted}`
-    case 'signed-off': return `Signed off ${d.stepTitle ? `"${d.stepTitle}"` : 'the run'}${d.signerRole ? ` as ${d.signerRole}` : ''}.${notCounted}`
+    case 'hold-acknowledged': return `Acknowledged the ${d.signalWord ? `${d.signalWord} ` : ''}hold.${shown}${notCounted}`
+    case 'signed-off': return `Signed off ${d.stepTitle ? `"${d.stepTitle}"` : 'the run'}${d.signerRole ? ` as ${d.signerRole}` : ''}.${shown}${notCounted}`
     case 'entry-changed': return String(d.reason ?? '')
     case 'backdated': return String(d.reason ?? '')
     case 'entered-from-paper': return `Run done on paper${d.ranAt ? ` on ${String(d.ranAt).slice(0, 16).replace('T', ' ')} UTC` : ''} by ${d.operatorName ?? 'the person named'}, entered ${d.enteredAt ? `on ${String(d.enteredAt).slice(0, 16).replace('T', ' ')} UTC ` : ''}by ${d.enteredByName ?? 'a trainer or the owner'}${d.sheetUploadId ? ' (photo of the sheet kept)' : ''}.`

@@ -7,6 +7,8 @@ declare module '#auth-utils' {
     name: string
     email: string
     role: Role
+    /** The person's chosen language; null until they choose (the browser decides). */
+    language?: string | null
   }
 }
 

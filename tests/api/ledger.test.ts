@@ -423,7 +423,7 @@ describe('GET /api/ledger/export.csv', () => {
     'Not counted because': r.detail.notCounted ?? '', 'Changed later': r.changedAt ? `yes, see entry ${r.changedBy}` : 'no',
     'Person': r.actorName, 'Machine': r.machineName, 'Procedure': r.procedureTitle, 'Step': r.stepTitle ?? '', 'What happened': r.summary,
     'Reason': r.detail.reason ?? '', 'Reading': r.detail.value === undefined ? '' : String(r.detail.value), 'Unit': r.detail.unit ?? '',
-    'Allowed range': r.detail.range ?? '', 'Signal word': r.detail.signalWord ?? '', 'Entry': String(r.id), 'Revision': String(r.revision),
+    'Allowed range': r.detail.range ?? '', 'Signal word': r.detail.signalWord ?? '', 'Language on screen': r.detail.lang ?? '', 'Entry': String(r.id), 'Revision': String(r.revision),
     'Run': r.runId, 'Event': r.eventId, 'Kind (code)': r.kind, 'Detail (JSON)': r.detail,
   })
 

@@ -25,6 +25,8 @@ const ROUTES: Record<string, Row> = {
   'POST /api/auth/login': { allowed: ['anyone'], probe: () => ({ path: '/api/auth/login', body: {} }), okStatus: 400 },
   'POST /api/auth/logout': { allowed: everyone, probe: () => ({ path: '/api/auth/logout' }), okStatus: 200 },
   'GET /api/me': { allowed: everyone, probe: () => ({ path: '/api/me' }), okStatus: 200 },
+  'PATCH /api/me': { allowed: everyone, probe: () => ({ path: '/api/me', body: {} }), okStatus: 400 },
+  'PUT /api/procedure-versions/[id]/translations/[lang]': { allowed: ['owner', 'trainer'], probe: c => ({ path: `/api/procedure-versions/${c.versionId}/translations/es`, body: {} }), okStatus: 400, crossShop: true },
   'GET /api/users': { allowed: ['owner', 'trainer'], probe: () => ({ path: '/api/users' }), okStatus: 200 },
   // Bodies are empty on purpose: an allowed role gets 400 from validation and nothing changes.
   'POST /api/users': { allowed: ['owner'], probe: () => ({ path: '/api/users', body: {} }), okStatus: 400 },

@@ -6,10 +6,20 @@ export { DEMO, DEMO_PASSWORD }
 
 export async function signIn(page: Page, role: keyof typeof DEMO) {
   await page.goto('/login')
+  await hydrated(page)
   await page.getByLabel('E-mail').fill(DEMO[role])
   await page.getByLabel('Password').fill(DEMO_PASSWORD)
   await page.getByRole('button', { name: 'Sign in' }).click()
   await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
+}
+
+/**
+ * Waits until Vue has taken over the server-rendered page: text typed into a field before that
+ * is wiped when the field's model is bound (the app mounts once its plugins, the language's
+ * messages among them, are ready).
+ */
+export async function hydrated(page: Page) {
+  await page.waitForFunction(() => !!(document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__)
 }
 
 /** Press and hold a control for `ms` (the deliberate gesture that acknowledges a hold). */

@@ -35,7 +35,7 @@ describe('build_is_stale', () => {
     expect(stale()).toBe(false)
   })
 
-  it.each(['utils/backoff.ts', 'error.vue', 'app.vue', 'layouts/default.vue', 'middleware/auth.global.ts', 'server/api/health.get.ts', 'shared/runs/fold.ts'])(
+  it.each(['utils/backoff.ts', 'error.vue', 'app.vue', 'layouts/default.vue', 'middleware/auth.global.ts', 'server/api/health.get.ts', 'shared/runs/fold.ts', 'i18n/locales/es.json'])(
     'rebuilds after %s changes', (path) => {
       file('out/nitro.json', BUILT)
       file(path, after)

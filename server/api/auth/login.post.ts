@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
   if (!row.active) {
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'This account has been deactivated. Ask the shop owner.' })
   }
-  const user = { id: row.id, shopId: row.shopId, name: row.name, email: row.email, role: row.role }
+  const user = { id: row.id, shopId: row.shopId, name: row.name, email: row.email, role: row.role, language: row.language }
   await setUserSession(event, { user, loggedInAt: Date.now() })
   return { user }
 })

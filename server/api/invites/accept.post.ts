@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
       shopId: inv.shopId, actorId: id, kind: 'invite.accepted', subjectType: 'invite', subjectId: String(inv.id),
       detail: { userId: id, role: inv.role, email: inv.email },
     })
-    return { id, shopId: inv.shopId, name: body.name, email: inv.email, role: inv.role }
+    return { id, shopId: inv.shopId, name: body.name, email: inv.email, role: inv.role, language: null }
   }))
   await setUserSession(event, { user, loggedInAt: Date.now() })
   setResponseStatus(event, 201)

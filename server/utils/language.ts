@@ -1,0 +1,45 @@
+import type { H3Event } from 'h3'
+import { getCookie, getRequestHeader } from 'h3'
+import locales from '#jogwise-locales'
+import { pickLanguage, translateIssues, translateText, type FieldIssue, type MessageTree } from '#shared/i18n/translate'
+
+/** Every language the app has a file for (i18n/locales), English first. */
+export const LANGUAGES: readonly string[] = ['en', ...Object.keys(locales).filter(l => l !== 'en').sort()]
+export const LANGUAGE_COOKIE = 'jogwise-lang'
+
+export function isLanguage(value: unknown): value is string {
+  return typeof value === 'string' && LANGUAGES.includes(value)
+}
+
+/**
+ * The language of whoever made the request: their profile's choice, else the tablet's (the
+ * language cookie the screens keep), else the browser's Accept-Language, else English.
+ */
+export function callerLanguage(event: H3Event): string {
+  const chosen = (event.context.shopUser as { language?: string | null } | undefined)?.language
+  if (isLanguage(chosen)) return chosen
+  const cookie = getCookie(event, LANGUAGE_COOKIE)
+  if (isLanguage(cookie)) return cookie
+  return pickLanguage(getRequestHeader(event, 'accept-language'), LANGUAGES)
+}
+
+function section(lang: string, name: string): MessageTree {
+  return ((locales[lang] ?? locales.en) as Record<string, MessageTree>)[name] ?? {}
+}
+
+/** An English server or zod message in `lang` (shared/i18n/translate.ts). */
+export function textIn(lang: string, text: string) {
+  return translateText(text, section('en', 'errors'), section(lang, 'errors'))
+}
+
+export function issuesIn(lang: string, issues: FieldIssue[]) {
+  return translateIssues(issues, section('en', 'errors'), section(lang, 'errors'))
+}
+
+/** A message by key (`mail.override.subject`) in `lang`, English when that language lacks it. */
+export function messageIn(lang: string, key: string, values: Record<string, string | number> = {}): string {
+  const find = (tree: unknown) => key.split('.').reduce<unknown>((node, part) => (node && typeof node === 'object') ? (node as Record<string, unknown>)[part] : undefined, tree)
+  const template = find(locales[lang]) ?? find(locales.en)
+  if (typeof template !== 'string') return key
+  return template.replace(/\{(\w+)\}/g, (whole, name: string) => name in values ? String(values[name]) : whole)
+}

@@ -1,0 +1,139 @@
+import { z } from 'zod'
+import { LANGUAGE_CODE } from '../schemas/language'
+import { STEP_KEY_PATTERN, type ProcedureStep } from './schema'
+import { plainTextProblem } from './text'
+
+// A procedure version's translations (issue 16): per language, the version's title and summary
+// and, step by step, the words a person reads. Keys, kinds, ranges, units and signal words are
+// the original's and are never translated. Stored beside the version (procedure_versions.
+// translations); the original never changes.
+
+/** The language procedures are written in. A shop writing in another language is a later issue. */
+export const ORIGINAL_LANGUAGE = 'en'
+
+/** Every text a step may carry, in reading order. */
+export const STEP_TEXT_FIELDS = ['title', 'body', 'hazard', 'avoid', 'label', 'subject', 'statement', 'guidance'] as const
+export type StepTextField = typeof STEP_TEXT_FIELDS[number]
+
+// Translations run longer than the English (Spanish by about a quarter), so each limit is
+// half again the original's (shared/procedures/schema.ts).
+const LIMITS: Record<StepTextField | 'summary' | 'procedureTitle', number> = {
+  procedureTitle: 180, summary: 900, title: 150, body: 1200, hazard: 750, avoid: 900, label: 120, subject: 300, statement: 600, guidance: 2200,
+}
+
+function translated(label: string, max: number) {
+  return z.string({ error: `${label} must be text.` }).trim()
+    .max(max, `${label} must be at most ${max} characters.`)
+    .superRefine((value, ctx) => {
+      const plain = plainTextProblem(value)
+      if (plain) ctx.addIssue({ code: 'custom', message: `${label} ${plain}.` })
+    })
+    .optional()
+}
+
+export const StepTranslationSchema = z.object({
+  title: translated('Translated title', LIMITS.title),
+  body: translated('Translated text', LIMITS.body),
+  hazard: translated('Translated hazard statement', LIMITS.hazard),
+  avoid: translated('Translated way to avoid the hazard', LIMITS.avoid),
+  label: translated('Translated value label', LIMITS.label),
+  subject: translated('Translated photo subject', LIMITS.subject),
+  statement: translated('Translated sign-off statement', LIMITS.statement),
+  guidance: translated('Translated guidance', LIMITS.guidance),
+  /** Carried over from the previous version for an unchanged step; a trainer confirms it. */
+  draft: z.boolean({ error: 'Draft must be true or false.' }).optional(),
+}, { error: 'Each step translation must be an object of texts.' }).strict()
+export type StepTranslation = z.output<typeof StepTranslationSchema>
+
+export const VersionTranslationSchema = z.object({
+  title: translated('Translated procedure title', LIMITS.procedureTitle),
+  summary: translated('Translated summary', LIMITS.summary),
+  steps: z.record(
+    z.string().regex(STEP_KEY_PATTERN, 'Step key may use only lower-case letters, digits and single hyphens (e.g. "isolate-power").').max(60, 'Step key must be at most 60 characters.'),
+    StepTranslationSchema,
+    { error: 'Steps must be an object of translations by step key.' },
+  ),
+}, { error: 'A translation must be an object with a title, summary and steps.' }).strict()
+export type VersionTranslation = z.output<typeof VersionTranslationSchema>
+
+export const TranslationsSchema = z.record(
+  z.string().regex(LANGUAGE_CODE, 'Language must be a two- or three-letter code such as "es".'),
+  VersionTranslationSchema,
+)
+export type Translations = z.output<typeof TranslationsSchema>
+
+/** Reads a stored translations column; a language whose entry no longer passes is left out. */
+export function readTranslations(stored: unknown): Translations {
+  const out: Translations = {}
+  if (!stored || typeof stored !== 'object') return out
+  for (const [lang, value] of Object.entries(stored)) {
+    if (!LANGUAGE_CODE.test(lang)) continue
+    const parsed = VersionTranslationSchema.safeParse(value)
+    if (parsed.success) out[lang] = parsed.data
+  }
+  return out
+}
+
+/** The texts a step has in the original (empty fields are not asked to be translated). */
+export function stepTexts(step: ProcedureStep): Partial<Record<StepTextField, string>> {
+  const out: Partial<Record<StepTextField, string>> = {}
+  const s = step as Record<string, unknown>
+  for (const f of STEP_TEXT_FIELDS) if (typeof s[f] === 'string' && (s[f] as string).trim()) out[f] = s[f] as string
+  return out
+}
+
+export interface LocalizedStep {
+  step: ProcedureStep
+  /** 'full': every text in the language; 'partial': some fall back to the original; 'none'. */
+  coverage: 'full' | 'partial' | 'none'
+  /** The language of the text shown (the original's when nothing is translated). */
+  lang: string
+  draft: boolean
+}
+
+/** The step as a reader of `lang` sees it: translated texts over the original's. */
+export function localizeStep(step: ProcedureStep, translations: Translations | null | undefined, lang: string): LocalizedStep {
+  if (lang === ORIGINAL_LANGUAGE) return { step, coverage: 'full', lang, draft: false }
+  const t = translations?.[lang]?.steps[step.key]
+  const texts = stepTexts(step)
+  const fields = Object.keys(texts) as StepTextField[]
+  const done = fields.filter(f => t?.[f])
+  if (!t || done.length === 0) return { step, coverage: 'none', lang: ORIGINAL_LANGUAGE, draft: false }
+  const merged = { ...step } as Record<string, unknown>
+  for (const f of done) merged[f] = t[f]
+  return { step: merged as ProcedureStep, coverage: done.length === fields.length ? 'full' : 'partial', lang, draft: !!t.draft }
+}
+
+/** The procedure's title in `lang`, or the original's. */
+export function localizedTitle(version: { title: string, translations?: Translations | null }, lang: string) {
+  return (lang !== ORIGINAL_LANGUAGE && version.translations?.[lang]?.title) || version.title
+}
+
+/**
+ * A new version's translations from the previous one's: every step whose key and original
+ * texts did not change keeps its translation, marked as a draft for a trainer to confirm;
+ * changed and new steps start untranslated. Titles and summaries carry over as they are only
+ * when they did not change either.
+ */
+export function carryTranslations(
+  before: { title: string, summary: string, steps: ProcedureStep[], translations: Translations },
+  after: { title: string, summary: string, steps: ProcedureStep[] },
+): Translations {
+  const out: Translations = {}
+  const old = new Map(before.steps.map(s => [s.key, s]))
+  for (const [lang, tr] of Object.entries(before.translations)) {
+    const steps: Record<string, StepTranslation> = {}
+    for (const step of after.steps) {
+      const prev = old.get(step.key)
+      const t = tr.steps[step.key]
+      if (!prev || !t || prev.kind !== step.kind) continue
+      if (JSON.stringify(stepTexts(prev)) !== JSON.stringify(stepTexts(step))) continue
+      steps[step.key] = { ...t, draft: true }
+    }
+    const entry: VersionTranslation = { steps }
+    if (tr.title && before.title === after.title) entry.title = tr.title
+    if (tr.summary && before.summary === after.summary) entry.summary = tr.summary
+    if (Object.keys(steps).length || entry.title || entry.summary) out[lang] = entry
+  }
+  return out
+}
