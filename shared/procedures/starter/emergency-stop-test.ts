@@ -1,0 +1,76 @@
+import type { StarterProcedure } from './types'
+import { SUPPLEMENT_NOTICE } from '../schema'
+import { protectiveGear, finalSignoff } from './common-steps'
+
+export const emergencyStopTest: StarterProcedure = {
+  slug: 'emergency-stop-test',
+  title: 'Test the emergency stops',
+  summary: 'Prove that every emergency stop halts the spindle and all axes, that nothing restarts by itself when a stop is released, and record the spindle stopping time.',
+  category: 'safety',
+  supplementNotice: SUPPLEMENT_NOTICE,
+  steps: [
+    {
+      key: 'test-hazard',
+      kind: 'hold',
+      title: 'Test with no cutter and a clear bed',
+      body: 'This test runs the spindle and moves the axes on purpose. Fit no cutter and keep everyone away from the bed.',
+      guidance: 'The test checks a safety system, so assume it might fail. Nobody should be where a failure could hurt them.',
+      signalWord: 'WARNING',
+      hazard: 'If a stop fails during the test, the spindle and gantry keep moving and can seriously injure anyone near the bed.',
+      avoid: 'Remove the cutter from the spindle, and do not tighten the collet nut on an empty collet: it crushes the collet. Run without a tool the way the spindle maker\'s manual says. Clear the bed. Keep everyone outside the work area. Keep a second way to cut power within reach.',
+      needsTrainerSignoff: true,
+    },
+    protectiveGear(),
+    {
+      key: 'power-home',
+      kind: 'instruction',
+      title: 'Switch on and home',
+      body: 'Switch the machine on and home it. Raise Z to the top.',
+      guidance: 'Homing first means the axes move within known limits during the test.',
+    },
+    {
+      key: 'spindle-stop-test',
+      kind: 'instruction',
+      title: 'Stop the running spindle',
+      body: 'Start the spindle at a low speed with no cutter fitted. Press the emergency stop. Time how long the spindle takes to stop turning.',
+      guidance: 'Use a stopwatch or the clock on this tablet. Count from the press to the moment the nut stops turning.',
+    },
+    {
+      key: 'spindle-stop-time',
+      kind: 'check',
+      title: 'Record the spindle stopping time',
+      body: 'Enter the seconds from pressing the stop to the spindle standing still.',
+      guidance: 'Your spindle maker\'s manual may give a stopping time. The range here is a starting point (common practice, no published source).',
+      label: 'Spindle stopping time',
+      unit: 's',
+      min: 0,
+      max: 10,
+    },
+    {
+      key: 'axis-stop-test',
+      kind: 'instruction',
+      title: 'Stop a moving axis',
+      body: 'Release the stop and reset the controller. Jog X slowly across the bed. Press the emergency stop. The gantry must stop at once.',
+      guidance: 'Repeat with each emergency stop button if the machine has more than one.',
+    },
+    {
+      key: 'no-restart',
+      kind: 'instruction',
+      title: 'Release the stop and check nothing restarts',
+      body: 'Release the emergency stop. Nothing may move or start until you reset the controller and give a command.',
+      guidance: 'A machine that starts by itself after a stop or a power cut could catch someone reaching in.',
+    },
+    {
+      key: 'failed-stop',
+      kind: 'hold',
+      title: 'A failed stop takes the machine out of service',
+      body: 'If any stop did not halt the machine, or anything restarted by itself, the machine must not be used.',
+      guidance: 'Add a note saying which stop failed and how. The owner arranges the repair: a stop circuit is repaired only by a qualified person, and an electrical fault only by a licensed electrician. Nobody at the machine tries to fix it.',
+      signalWord: 'WARNING',
+      hazard: 'A machine whose stop has failed cannot be stopped in an emergency and could seriously injure someone.',
+      avoid: 'Isolate the power, lock it, and tag the machine out of service. Tell the owner. Leave the repair to a qualified person, and electrical faults to a licensed electrician. Do not use the machine until it is repaired and this test passes again.',
+      needsTrainerSignoff: false,
+    },
+    finalSignoff('Every emergency stop halted the spindle and axes, nothing restarted by itself, and the stopping time is recorded.'),
+  ],
+}
