@@ -6,11 +6,7 @@ export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
   const { language } = await readValid(event, MePatchSchema)
   if (language !== null && !isLanguage(language)) {
-    throw createError({
-      statusCode: 400, statusMessage: 'Invalid input',
-      message: `language: Jogwise has no ${language} screens; choose one of ${LANGUAGES.join(', ')}.`,
-      data: { issues: [{ path: 'language', message: `Jogwise has no ${language} screens; choose one of ${LANGUAGES.join(', ')}.` }] },
-    })
+    throw invalidInput('language', `Jogwise has no ${language} screens; choose one of ${LANGUAGES.join(', ')}.`)
   }
   // The person's own row
   await useDB().update(tables.users).set({ language }).where(and(eq(tables.users.id, user.id), eq(tables.users.shopId, user.shopId)))

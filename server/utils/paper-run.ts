@@ -11,14 +11,7 @@ import type { ShopUser } from './authz'
 // any run; runs.origin = 'paper' with who entered it and when marks it everywhere, and one
 // entered-from-paper Ledger entry says so.
 
-function invalid(issues: FieldIssue[]) {
-  const first = issues[0]
-  return createError({
-    statusCode: 400, statusMessage: 'Invalid input',
-    message: first ? (first.path ? `${first.path}: ${first.message}` : first.message) : 'Invalid input',
-    data: { issues },
-  })
-}
+const invalid = (issues: FieldIssue[]) => invalidIssues(issues)
 
 /** Checks the sheet against the shop's rows; the people, machine and version it names. */
 async function lookUp(user: ShopUser, input: PaperRun) {

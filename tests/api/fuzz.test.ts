@@ -180,6 +180,8 @@ beforeAll(async () => {
   Object.assign(ids, {
     'machines': String(machines[0].id), 'procedures': String(procedures[0].id), 'procedure-versions': String(procedures[0].current.id),
     'users': String(operator.id), 'runs': runId, 'uploads': crypto.randomUUID(), 'paper-runs': runId,
+    // The language of a translation: a locale that exists, so the body is what gets checked.
+    'translations': 'es',
   })
   before = await snapshot()
 }, 60_000)

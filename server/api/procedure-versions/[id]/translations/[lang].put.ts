@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { VersionTranslationSchema } from '#shared/procedures'
 import { MAX_ID } from '#shared/schemas/input'
+import { LEAD_ROLES } from '#shared/types/roles'
 
 const ParamsSchema = z.object({
   id: z.coerce.number().int().positive().max(MAX_ID),
@@ -12,7 +13,7 @@ const ParamsSchema = z.object({
 // each change is on the audit trail.
 export default defineEventHandler(async (event) => {
   const { id, lang } = paramsValid(event, ParamsSchema)
-  const user = await requireRole(event, 'owner', 'trainer')
+  const user = await requireRole(event, ...LEAD_ROLES)
   if (!isLanguage(lang)) throw notFound('language')
   const version = (await loadVersions(user.shopId, [id])).get(id)
   if (!version) throw notFound('procedure version')
@@ -21,7 +22,7 @@ export default defineEventHandler(async (event) => {
   const unknown = Object.keys(body.steps).filter(k => !keys.has(k))
   if (unknown.length) {
     const issues = unknown.map(k => ({ path: `steps.${k}`, message: `Version ${version.version} has no step "${k}".` }))
-    throw createError({ statusCode: 400, statusMessage: 'Invalid input', message: `${issues[0]!.path}: ${issues[0]!.message}`, data: { issues } })
+    throw invalidIssues(issues)
   }
   // Empty texts are left out: the step shows the original there.
   const steps = Object.fromEntries(Object.entries(body.steps).map(([k, t]) => [k, Object.fromEntries(Object.entries(t).filter(([, v]) => v !== '' && v !== undefined))])
