@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
-import { signIn } from './helpers'
+import { signIn, hydrated } from './helpers'
 
 // Test vector F1, computed independently (SVD least squares; a linear program for the minimum zone):
 // a saddle on a 3 × 3 grid at 100 mm spacing, rows front to back. LSQ peak-to-valley 0.100 mm,
@@ -22,6 +22,7 @@ test.describe('Board and Feeds at 1024×768', () => {
   test('an operator records a 3 × 3 grid for Big Table and sees its flatness and heat map', async ({ page }) => {
     await signIn(page, 'operator')
     await page.goto('/board')
+    await hydrated(page)
     await page.getByRole('navigation', { name: 'Machines' }).getByRole('link', { name: 'Big Table' }).click()
     await expect(page.getByRole('heading', { level: 1 })).toContainText('Big Table')
     const log = page.getByRole('button', { name: 'Log new readings' })
@@ -60,6 +61,7 @@ test.describe('Board and Feeds at 1024×768', () => {
   test('the Feeds screen works out an rpm, also with the network gone', async ({ page, context }) => {
     await signIn(page, 'operator')
     await page.goto('/feeds')
+    await hydrated(page)
     await expect(page.getByRole('heading', { name: 'Feeds', level: 1 })).toBeVisible()
     await page.getByText('Metric (mm)').click()
     // Vc = 100 m/min on D = 10 mm → 3183.10 rpm (published by online spindle-speed calculators).

@@ -1,5 +1,5 @@
 import { expect, test, type APIRequestContext } from '@playwright/test'
-import { runReady, signIn, startProcedure } from './helpers'
+import { runReady, signIn, startProcedure, hydrated } from './helpers'
 
 // Mail in the browser at 1024×768 with touch: the owner invites a trainer, the invite is read
 // from the fake SMTP server's own REST API (maildev), the link is followed signed out, a
@@ -24,6 +24,7 @@ test('the owner invites a trainer who joins from the e-mailed link', async ({ pa
   const email = `e2e-trainer-${Date.now()}@demo.jogwise.test`
   await signIn(page, 'owner')
   await page.goto('/crew')
+  await hydrated(page)
   const form = page.getByRole('form', { name: 'Invite by e-mail' })
   // A bad address is refused beside the field, before anything is sent.
   await form.getByLabel('E-mail to invite').fill('not-an-address')
@@ -44,6 +45,7 @@ test('the owner invites a trainer who joins from the e-mailed link', async ({ pa
   const guest = await browser.newContext({ viewport: { width: 1024, height: 768 }, hasTouch: true })
   const joiner = await guest.newPage()
   await joiner.goto(link!)
+  await hydrated(joiner)
   await expect(joiner.getByRole('heading', { name: 'Join a shop' })).toBeVisible()
   await expect(joiner.getByTestId('join-email')).toHaveText(email)
   await expect(joiner.getByTestId('join-role')).toHaveText('Trainer')
@@ -58,6 +60,7 @@ test('the owner invites a trainer who joins from the e-mailed link', async ({ pa
   await expect(joiner.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
   // The link worked once only.
   await joiner.goto(link!)
+  await hydrated(joiner)
   await expect(joiner.getByRole('alert')).toContainText('already been used')
   await guest.close()
 
@@ -65,6 +68,7 @@ test('the owner invites a trainer who joins from the e-mailed link', async ({ pa
   const fresh = await browser.newContext({ viewport: { width: 1024, height: 768 }, hasTouch: true })
   const again = await fresh.newPage()
   await again.goto('/login')
+  await hydrated(again)
   await again.getByLabel('E-mail').fill(email)
   await again.getByLabel('Password').fill('trainer-new-password')
   await again.getByRole('button', { name: 'Sign in' }).click()
@@ -110,6 +114,7 @@ test('a trainer\'s hold override reaches the owner by e-mail with the reason', a
   const owner = await ownerContext.newPage()
   await signIn(owner, 'owner')
   await owner.goto('/crew/mail')
+  await hydrated(owner)
   await expect(owner.getByTestId('caught-mail').filter({ hasText: 'Hold overridden on Big Table' }).first()).toBeVisible()
   await owner.getByTestId('caught-mail').filter({ hasText: 'Hold overridden on Big Table' }).first().getByRole('button').click()
   await expect(owner.getByText(reason)).toBeVisible()
@@ -120,6 +125,7 @@ test('a trainer\'s hold override reaches the owner by e-mail with the reason', a
 test('a trainer sees the crew read-only, without invites or mail', async ({ page }) => {
   await signIn(page, 'trainer')
   await page.goto('/crew')
+  await hydrated(page)
   await expect(page.getByText('Only the owner changes people and roles.')).toBeVisible()
   await expect(page.getByRole('listitem').filter({ hasText: 'Maren Oakes' })).toBeVisible()
   await expect(page.getByRole('form', { name: 'Invite by e-mail' })).toHaveCount(0)
@@ -127,5 +133,6 @@ test('a trainer sees the crew read-only, without invites or mail', async ({ page
   await expect(page.getByRole('link', { name: /mail/i })).toHaveCount(0)
   // The owner's mail page sends anyone else back to the Floor.
   await page.goto('/crew/mail')
+  await hydrated(page)
   await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
 })

@@ -1,6 +1,6 @@
 import { readFile } from 'node:fs/promises'
 import { expect, test } from '@playwright/test'
-import { signIn } from './helpers'
+import { signIn, hydrated } from './helpers'
 
 // The shop's cutter list at 1024×768: a trainer adds a cutter, an operator only reads the list,
 // and the Planner takes the picked cutter's sizes and warns above its maximum speed.
@@ -9,6 +9,7 @@ test.describe('Cutters', () => {
     const name = `Facing cutter 2 in ${Date.now()}`
     await signIn(page, 'trainer')
     await page.goto('/cutters')
+    await hydrated(page)
     await expect(page.getByRole('heading', { name: 'Cutters', level: 1 })).toBeVisible()
     // The demo shop's invented cutters are there.
     await expect(page.getByText('Facing cutter 25 mm, 3 inserts')).toBeVisible()
@@ -33,12 +34,14 @@ test.describe('Cutters', () => {
     const operator = await operatorContext.newPage()
     await signIn(operator, 'operator')
     await operator.goto('/cutters')
+    await hydrated(operator)
     await expect(operator.getByTestId('cutter').filter({ hasText: name })).toBeVisible()
     await expect(operator.getByRole('button', { name: 'Add cutter' })).toHaveCount(0)
     await expect(operator.getByRole('button', { name: `Edit ${name}` })).toHaveCount(0)
 
     // The Planner picks it: diameter and flutes follow, the speed starts at its maximum.
     await operator.goto('/planner')
+    await hydrated(operator)
     await operator.getByLabel('Machine').selectOption({ label: 'Big Table' })
     await operator.getByLabel('Cutter from the shop\'s list').selectOption({ label: `${name} · 50.80 mm, 2 fl, max 10000 rpm` })
     await expect(operator.getByLabel(/^Diameter/)).toHaveValue('50.8')

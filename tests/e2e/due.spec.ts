@@ -1,6 +1,6 @@
 import { expect, request, test } from '@playwright/test'
 import { v7 as uuidv7 } from 'uuid'
-import { DEMO, DEMO_PASSWORD, signIn } from './helpers'
+import { DEMO, DEMO_PASSWORD, signIn, hydrated } from './helpers'
 
 // Due → Add interval at 1024×768 with touch (issue 11: the form threw before any request,
 // because a number field's value was treated as text). The owner adds one interval by days and
@@ -45,6 +45,7 @@ test('the owner adds an interval by days and one by spindle hours; both show on 
   const page = await context.newPage()
   await signIn(page, 'owner')
   await page.goto('/due')
+  await hydrated(page)
   const form = page.getByRole('form', { name: 'Add a maintenance interval' })
   const requests: string[] = []
   page.on('request', r => { if (r.url().endsWith('/api/maintenance-intervals') && r.method() === 'POST') requests.push(r.postData() ?? '') })

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { signIn } from './helpers'
+import { signIn, hydrated } from './helpers'
 
 // Forms that behave the same everywhere, at 1024×768 with touch: the decimal comma a tablet's
 // number pad offers is accepted on Machines and the Planner as on the measured checks; a refused
@@ -10,6 +10,7 @@ test('Machines: the first error gets focus and is in view; "610,5" is a number',
   const name = `Comma Router ${Date.now()}`
   await signIn(page, 'owner')
   await page.goto('/machines')
+  await hydrated(page)
   await page.getByRole('button', { name: 'Add machine' }).click()
   const form = page.locator('form')
   // Everything filled but the name, at the top of the form; submit from the bottom.
@@ -34,6 +35,7 @@ test('Machines: the first error gets focus and is in view; "610,5" is a number',
 test('Planner: a decimal comma, the reason Download waits, and a question before sizes are replaced', async ({ page }) => {
   await signIn(page, 'operator')
   await page.goto('/planner')
+  await hydrated(page)
   await page.getByLabel('Machine').selectOption({ label: 'Big Table' })
   await page.getByText('mm', { exact: true }).click()
   await page.getByLabel(/^X size/).fill('610,5')

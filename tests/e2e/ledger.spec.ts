@@ -2,7 +2,7 @@ import { readFile } from 'node:fs/promises'
 import { expect, request, test } from '@playwright/test'
 import { parse } from 'csv-parse/sync'
 import { makePng } from '../support/images'
-import { DEMO, DEMO_PASSWORD, pressWhenSettled, runReady, signIn, startProcedure, syncState } from './helpers'
+import { DEMO, DEMO_PASSWORD, pressWhenSettled, runReady, signIn, startProcedure, syncState, hydrated } from './helpers'
 
 // The Ledger at 1024×768 with touch: an operator's run stores a photo and a reading out of
 // range; the owner finds the entry with the filters, opens the run's record with the photo,
@@ -112,6 +112,7 @@ test('an operator\'s photo and out-of-range reading show in the owner\'s Ledger,
 
   // The due list from the demo shop's intervals
   await page.goto('/due')
+  await hydrated(page)
   await expect(page.getByTestId('due-item').first()).toBeVisible()
   await expect(page.getByText('Maintenance intervals')).toBeVisible()
   await page.screenshot({ path: 'test-results/ledger-due.png', fullPage: true })

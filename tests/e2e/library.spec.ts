@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
-import { signIn } from './helpers'
+import { signIn, hydrated } from './helpers'
 
 // The seeded starter procedure every demo shop has (shared/procedures/starter-library.ts).
 const RESURFACING = 'Resurface the spoilboard'
@@ -52,6 +52,7 @@ test.describe('Library at 1024×768', () => {
     expect(await seriousViolations(page)).toEqual([])
     // The editor is not reachable by address either.
     await page.goto(page.url() + '/edit')
+    await hydrated(page)
     await expect(page.getByRole('heading', { level: 1, name: 'Floor', exact: true })).toBeVisible()
   })
 
@@ -161,6 +162,7 @@ test.describe('Library at 1024×768', () => {
     const trainer = await browser.newPage({ viewport: { width: 1024, height: 768 }, hasTouch: true })
     await signIn(trainer, 'trainer')
     await trainer.goto('/crew/qualifications')
+    await hydrated(trainer)
     await expect(trainer.getByRole('switch')).toHaveCount(0)
     await expect(trainer.getByText('Only the owner changes qualifications.')).toBeVisible()
     await trainer.close()

@@ -1,6 +1,6 @@
 import jsQR from 'jsqr'
 import { expect, test } from '@playwright/test'
-import { signIn } from './helpers'
+import { signIn, hydrated } from './helpers'
 
 // The printable machine tags (issue 17): each tag's QR code, as the browser draws it, decoded
 // by jsQR (ISO/IEC 18004; a decoder independent of the qrcode encoder) gives the address of
@@ -9,6 +9,7 @@ import { signIn } from './helpers'
 test('each machine tag decodes to its own address and opens the machine', async ({ page }) => {
   await signIn(page, 'owner')
   await page.goto('/machines')
+  await hydrated(page)
   await page.getByRole('link', { name: 'Tags and paper' }).click()
   const tags = page.locator('[data-tag-url]')
   await expect(tags.first()).toBeVisible()
@@ -33,5 +34,6 @@ test('each machine tag decodes to its own address and opens the machine', async 
   expect(text).toBe(`${new URL(page.url()).origin}/tag/${shop.id}/${machines[0].id}`)
   expect(await first.getAttribute('data-tag-url')).toBe(text)
   await page.goto(new URL(text!).pathname)
+  await hydrated(page)
   await expect(page).toHaveURL(new RegExp(`/start/${machines[0].id}$`))
 })

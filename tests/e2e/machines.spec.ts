@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { signIn } from './helpers'
+import { signIn, hydrated } from './helpers'
 
 // The owner's Machines screen at 1024×768 with touch: a machine is added (a missing name is
 // refused beside the field), shows on the Floor at once, is renamed, and once retired leaves
@@ -32,6 +32,7 @@ test('the owner adds, renames and retires a machine, and the Floor follows', asy
 
   // Renamed from its own page; the save answers at once.
   await page.goto('/machines')
+  await hydrated(page)
   await page.getByRole('listitem').filter({ hasText: name }).getByRole('link', { name: 'Edit' }).click()
   await page.getByLabel('Name').fill(`${name} (left bay)`)
   await page.getByRole('button', { name: 'Save changes' }).click()

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { pressAndHold, runReady, signInForOffline, startProcedure, syncState } from './helpers'
+import { pressAndHold, runReady, signInForOffline, startProcedure, syncState, hydrated } from './helpers'
 
 // The shop Wi-Fi drops: the run goes on, a hard reload still opens the Run screen from the
 // service worker, and everything entered reaches the server once the network is back.
@@ -29,6 +29,7 @@ test('a run goes on offline, survives a hard reload and closing the tab, then sy
   await page.close()
   page = await context.newPage()
   await page.goto(`/runs/${runId}`)
+  await hydrated(page)
   await expect(syncState(page)).toContainText('3 waiting')
   await expect(page.getByText('3 of 11 done')).toBeVisible()
 
@@ -52,6 +53,7 @@ test('two tablets on one run, both offline, both online again, end up showing th
   const runId = await startProcedure(pageA, 'Big Table', /Test the emergency stops/)
   await expect(syncState(pageA)).toHaveText('Online')
   await pageB.goto(`/runs/${runId}`)
+  await hydrated(pageB)
   await expect(pageB.getByTestId('primary-action')).toBeVisible()
 
   await a.setOffline(true)

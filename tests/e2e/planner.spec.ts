@@ -2,7 +2,7 @@ import { readFile } from 'node:fs/promises'
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
 import { v7 as uuidv7 } from 'uuid'
-import { runReady, signIn } from './helpers'
+import { runReady, signIn, hydrated } from './helpers'
 
 // The Planner at 1024×768 as an operator uses it beside the demo shop's Bench Router
 // (620 × 620 × 90 mm travel, inch units). Word meanings from the NIST RS274/NGC interpreter
@@ -37,6 +37,7 @@ test.describe('Planner at 1024×768', () => {
   test('an operator plans for the Bench Router, sees the preview and downloads the G-code', async ({ page }) => {
     await signIn(page, 'operator')
     await page.goto('/planner')
+    await hydrated(page)
     await expect(page.getByRole('heading', { name: 'Planner', level: 1 })).toBeVisible()
     await page.getByLabel('Machine').selectOption({ label: 'Bench Router' })
     // The machine's own units and its whole travel as the area: 620 mm = 24.4094 in.
@@ -79,6 +80,7 @@ test.describe('Planner at 1024×768', () => {
   test('wrong values show their reason beside the field and block the download', async ({ page }) => {
     await signIn(page, 'operator')
     await page.goto('/planner')
+    await hydrated(page)
     await page.getByLabel('Machine').selectOption({ label: 'Bench Router' })
     await page.getByLabel(/^Stepover/).fill('150')
     await expect(page.getByText('Stepover cannot be more than 100 % of the cutter diameter')).toBeVisible()
@@ -103,6 +105,7 @@ test.describe('Planner at 1024×768', () => {
   test('opened from a run\'s planner step, the plan is stored and attached to that step', async ({ page }) => {
     const { runId, bench, api } = await runAtPlannerStep(page)
     await page.goto(`/runs/${runId}`)
+    await hydrated(page)
     await runReady(page)
     await page.getByRole('link', { name: 'Open the Planner' }).click()
     await expect(page.getByRole('heading', { name: 'Planner', level: 1 })).toBeVisible()
@@ -129,6 +132,7 @@ test.describe('Planner at 1024×768', () => {
   test('offline, the plan\'s summary is attached to the run and reaches the server later', async ({ page, context }) => {
     const { runId } = await runAtPlannerStep(page)
     await page.goto(`/runs/${runId}`)
+    await hydrated(page)
     await runReady(page)
     await page.getByRole('link', { name: 'Open the Planner' }).click()
     await expect(page.getByTestId('planner-preview')).toBeVisible()

@@ -1,7 +1,7 @@
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Locator, type Page } from '@playwright/test'
 import { STARTER_LIBRARY } from '../../shared/procedures/starter-library'
-import { runReady, signIn, startProcedure } from './helpers'
+import { runReady, signIn, startProcedure, hydrated } from './helpers'
 
 // Everything in reach on a tablet in both orientations: the side actions never scroll away,
 // the longest hold of the starter library is readable whole in portrait, a step can be re-read
@@ -104,6 +104,7 @@ test('a trainee\'s sign-off keeps the hold being signed in view beside the signe
   test.setTimeout(90_000)
   await signIn(page, 'trainee')
   await page.goto('/')
+  await hydrated(page)
   await page.getByRole('article', { name: 'Big Table' }).getByRole('link', { name: 'Start a procedure' }).click()
   await page.getByRole('button', { name: /Resurface the spoilboard/ }).click()
   await expect(page.getByTestId('start-confirm')).toContainText('Guided')
@@ -153,5 +154,6 @@ test('a run started by mistake is withdrawn without a reason and listed as withd
   await expect(page.getByText('This run was withdrawn before anything was done.')).toBeVisible()
   await expect.poll(async () => (await (await page.request.get(`/api/runs/${runId}`)).json()).run?.status, { timeout: 20_000 }).toBe('withdrawn')
   await page.goto('/ledger')
+  await hydrated(page)
   await expect(page.getByTestId('ledger-run').filter({ hasText: `Withdraw check ${stamp}` })).toContainText('Withdrawn')
 })

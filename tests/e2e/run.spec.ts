@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
-import { pressAndHold, runReady, signIn, startProcedure } from './helpers'
+import { pressAndHold, runReady, signIn, startProcedure, hydrated } from './helpers'
 
 // The Run screen at 1024×768 with touch: a trainee's guided resurfacing run from the first step
 // to the trainer's sign-off, holds that a quick tap cannot pass, resuming after a reload, and
@@ -122,6 +122,7 @@ test('a trainee does the whole resurfacing run, guided, and the trainer signs it
   expect(facing.depthMm).toBeGreaterThan(0)
   expect(facing.thicknessMm).toBeCloseTo(15.75, 6)
   await page.goto(`/runs/${runId}/record`)
+  await hydrated(page)
   await expect(page.getByRole('list', { name: 'Record of the run' })).toContainText('Signed by Teodor Lind (trainer)')
   await page.screenshot({ path: 'test-results/run-record.png' })
 })
@@ -163,6 +164,7 @@ for (const [name, path] of [['Floor', '/'], ['Library', '/library']] as const) {
   test(`axe finds no serious or critical problem on the ${name}`, async ({ page }) => {
     await signIn(page, 'operator')
     await page.goto(path)
+    await hydrated(page)
     await page.waitForLoadState('networkidle')
     const result = await new AxeBuilder({ page }).analyze()
     expect(result.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => `${v.id}: ${v.help}`)).toEqual([])

@@ -4,7 +4,7 @@ import { join } from 'node:path'
 import { chromium, expect, test, type Browser } from '@playwright/test'
 import { machineTagUrl } from '../../shared/paper/tag-url'
 import { writeQrVideo } from '../support/y4m'
-import { DEMO, DEMO_PASSWORD } from './helpers'
+import { DEMO, DEMO_PASSWORD, hydrated } from './helpers'
 
 // "Scan a machine tag" on the Floor (issue 17) with Chromium's fake camera playing a generated
 // video of a QR code (ISO/IEC 18004, drawn by the qrcode package; read in the app by the
@@ -41,6 +41,7 @@ async function scan(text: (shop: { id: number }, machine: { id: number }) => str
   const wasm: string[] = []
   page.on('request', r => r.url().endsWith('.wasm') && wasm.push(r.url()))
   await page.goto('/login')
+  await hydrated(page)
   await page.getByLabel('E-mail').fill(DEMO.operator)
   await page.getByLabel('Password').fill(DEMO_PASSWORD)
   await page.getByRole('button', { name: 'Sign in' }).click()

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { DEMO, signIn } from './helpers'
+import { DEMO, signIn, hydrated } from './helpers'
 
 test.describe('sign-in at 1024×768', () => {
   for (const role of Object.keys(DEMO) as (keyof typeof DEMO)[]) {
@@ -17,6 +17,7 @@ test.describe('sign-in at 1024×768', () => {
 
   test('a wrong password says so plainly', async ({ page }) => {
     await page.goto('/login')
+    await hydrated(page)
     await page.getByLabel('E-mail').fill(DEMO.operator)
     await page.getByLabel('Password').fill('not-the-password')
     await page.getByRole('button', { name: 'Sign in' }).click()
@@ -25,6 +26,7 @@ test.describe('sign-in at 1024×768', () => {
 
   test('a screen opened signed out leads to sign-in and back', async ({ page }) => {
     await page.goto('/crew')
+    await hydrated(page)
     await expect(page).toHaveURL(/\/login\?next=(%2F|\/)crew/)
   })
 

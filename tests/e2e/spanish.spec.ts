@@ -175,6 +175,7 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
     await spanishTrainee(page, `${viewport.width}`)
     await page.goto('/')
     await hydrated(page)
+    await hydrated(page)
     await expect(page.getByRole('heading', { level: 1, name: 'Taller', exact: true })).toBeVisible()
     await expect(page.locator('html')).toHaveAttribute('lang', 'es')
     await checkScreen(page, [], 'the Floor')
@@ -214,6 +215,7 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
     const board = events.find((e: any) => e.type === 'value.recorded')
     expect(board.value).toBe(15.75)
     await page.goto(`/runs/${runId}/record`)
+    await hydrated(page)
     const record = page.getByRole('list', { name: 'Registro del trabajo' })
     await expect(record).toContainText('Firmado por Teodor Lind (formador)')
     await expect(record.getByTestId('shown-language').first()).toHaveText('Texto en pantalla: Español (es)')
@@ -227,6 +229,7 @@ test('a Spanish screen reloads offline in Spanish and the hold acknowledged offl
   const page = await context.newPage()
   await spanishTrainee(page, 'offline')
   await page.goto('/')
+  await hydrated(page)
   await expect(page.getByRole('heading', { level: 1, name: 'Taller', exact: true })).toBeVisible()
   // The service worker controls the page and has the reads and the language files.
   await page.evaluate(() => navigator.serviceWorker.ready)
