@@ -14,12 +14,13 @@ export async function signIn(page: Page, role: keyof typeof DEMO) {
 }
 
 /**
- * Waits until Vue has taken over the server-rendered page: text typed into a field before that
- * is wiped when the field's model is bound (the app mounts once its plugins, the language's
- * messages among them, are ready).
+ * Waits until Vue has taken over the server-rendered page. Until then the page is inert (app.vue),
+ * so a tap or typing there does nothing; a test that does not wait would act too early.
  */
 export async function hydrated(page: Page) {
-  await page.waitForFunction(() => !!(document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__)
+  // The app has started once it has mounted and lifted the inert cover of the server's page.
+  await page.waitForFunction(() => !!(document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__
+    && !document.querySelector('[data-starting]'))
 }
 
 /** Press and hold a control for `ms` (the deliberate gesture that acknowledges a hold). */

@@ -39,3 +39,24 @@ test.describe('sign-in at 1024×768', () => {
     }
   })
 })
+
+test('typing before the app has started is not taken and then lost: the page is inert until then', async ({ page }) => {
+  // Hold the app's scripts back, as a slow tablet or a cold service worker would.
+  let release!: () => void
+  const held = new Promise<void>((resolve) => { release = resolve })
+  await page.route(/\/_nuxt\/.*\.js$/, async (route) => { await held; await route.continue() })
+  await page.goto('/login', { waitUntil: 'commit' })
+  const email = page.locator('#email')
+  await email.waitFor()
+  await expect(page.locator('[data-starting]')).toHaveAttribute('inert', '')
+  // A real tap and keystrokes, not Playwright's fill (which waits for the field to take input).
+  const box = (await email.boundingBox())!
+  await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2)
+  await page.keyboard.type('early@example.test')
+  await expect(email).toHaveValue('')
+  release()
+  await hydrated(page)
+  await expect(page.locator('[inert]')).toHaveCount(0)
+  await email.fill(DEMO.operator)
+  await expect(email).toHaveValue(DEMO.operator)
+})
