@@ -38,10 +38,12 @@ export function useFormat() {
     time: (v: When) => when(v, 'time'),
     /** Thu 2:05 PM */
     weekdayTime: (v: When) => when(v, 'weekdayTime'),
-    /** "5 minutes ago", "now" */
+    /** "5 minutes ago"; "now" within the last minute, and for a time a clock ahead of ours wrote */
     ago: (v: When, now: When = Date.now()) => {
       const d = toDate(v)
-      return Number.isNaN(d.getTime()) ? '—' : formatTimeAgoIntl(d, { locale: tag.value, relativeTimeFormatOptions: { numeric: 'auto' } }, toDate(now))
+      if (Number.isNaN(d.getTime())) return '—'
+      const from = toDate(now).getTime() - d.getTime() < 60_000 ? toDate(now) : d
+      return formatTimeAgoIntl(from, { locale: tag.value, relativeTimeFormatOptions: { numeric: 'auto' } }, toDate(now))
     },
   }
 }

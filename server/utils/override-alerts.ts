@@ -1,4 +1,5 @@
 import type { RunEvent } from '#shared/runs'
+import { readTranslations } from '#shared/procedures'
 import type { ShopUser } from './authz'
 import type { DB } from './db'
 
@@ -27,9 +28,10 @@ export async function enqueueOverrideAlerts(tx: Tx, user: ShopUser, events: RunE
       const lang = owner.language ?? 'en'
       const m = (key: string, values: Record<string, string | number> = {}) => messageIn(lang, `mail.${key}`, values)
       const signal = word ? `${m(`signal.${word}`)} ` : ''
-      const hold = step ? `${signal}"${step.title}"` : m('step', { key: o.stepKey })
+      const titles = titlesIn(lang, run, step)
+      const hold = titles.step ? `${signal}"${titles.step}"` : m('step', { key: o.stepKey })
       const machine = run?.machine ?? m('aMachine')
-      const procedure = run?.procedure ?? m('unknown')
+      const procedure = titles.procedure ?? m('unknown')
       const role = m(`role.${user.role}`)
       const text = [
         m('override.intro', { name: user.name, role, machine }),
@@ -53,6 +55,7 @@ async function alertContext(tx: Tx, shopId: number, ids: string[]) {
   const runIds = [...new Set(ids)]
   const runs = await tx.select({
     id: tables.runs.id, versionId: tables.runs.procedureVersionId, machine: tables.machines.name, procedure: tables.procedureVersions.title,
+    translations: tables.procedureVersions.translations,
   }).from(tables.runs)
     .innerJoin(tables.machines, eq(tables.machines.id, tables.runs.machineId))
     .innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, tables.runs.procedureVersionId))
@@ -63,6 +66,14 @@ async function alertContext(tx: Tx, shopId: number, ids: string[]) {
       .from(tables.procedureSteps).where(inArray(tables.procedureSteps.versionId, [...new Set(runs.map(r => r.versionId))]))
     : []
   return { runById: new Map(runs.map(r => [r.id, r])), steps }
+}
+
+type AlertRun = { procedure: string, translations: Record<string, unknown> | null }
+
+// The procedure's and the step's titles in the owner's language where the version has them.
+function titlesIn(lang: string, run: AlertRun | undefined, step: { key: string, title: string } | undefined) {
+  const t = run ? readTranslations(run.translations)[lang] : undefined
+  return { procedure: (run && (t?.title || run.procedure)) || undefined, step: step && (t?.steps[step.key]?.title || step.title) }
 }
 
 type Signoff = Extract<RunEvent, { type: 'signoff.given' }>
@@ -84,9 +95,10 @@ export async function enqueueSignoffFailedAlerts(tx: Tx, user: ShopUser, failed:
     for (const owner of owners) {
       const lang = owner.language ?? 'en'
       const m = (key: string, values: Record<string, string | number> = {}) => messageIn(lang, `mail.${key}`, values)
-      const what = e.stepKey ? (step ? m('stepTitled', { title: step.title }) : m('step', { key: e.stepKey })) : m('wholeRun')
+      const titles = titlesIn(lang, run, step)
+      const what = e.stepKey ? (titles.step ? m('stepTitled', { title: titles.step }) : m('step', { key: e.stepKey })) : m('wholeRun')
       const machine = run?.machine ?? m('aMachine')
-      const procedure = run?.procedure ?? m('unknown')
+      const procedure = titles.procedure ?? m('unknown')
       const role = m(`role.${user.role}`)
       const text = [
         m('signoffFailed.intro', { name: signerName, machine }),

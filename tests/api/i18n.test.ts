@@ -2,6 +2,7 @@ import { parse } from 'csv-parse/sync'
 import { v7 as uuidv7 } from 'uuid'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { as, call, db, signIn } from './client'
+import { seal } from './seal'
 
 // The crew's languages (issue 16) against the real server and MariaDB: errors in the caller's
 // language (profile, then the tablet's cookie, then Accept-Language), field issues keeping their
@@ -22,6 +23,7 @@ const SPANISH = {
   title: 'Procedimiento de prueba de idioma',
   steps: {
     isolate: { title: 'Corta la corriente', body: 'Apaga y bloquea el seccionador.', hazard: 'Un arranque inesperado puede herir las manos cerca de la fresa.', avoid: 'Bloquea el seccionador y comprueba que nada arranca.' },
+    sign: { title: 'Firma el trabajo' },
   },
 }
 
@@ -145,6 +147,22 @@ describe('a trainee in Spanish acknowledges a hold', () => {
     const csv = await fetch(`${process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3100'}/api/ledger/export.csv?kind=hold-acknowledged&procedureId=${procedureId}`, { headers: { cookie: await as('owner') } })
     const records = parse(await csv.text(), { columns: true, skip_empty_lines: true }) as Record<string, string>[]
     expect(records.find(r => r.Event === ack.id)?.['Language on screen']).toBe('es')
+  })
+
+  it('names the step of a Ledger entry on the run\'s record in the reader\'s language', async () => {
+    await call('POST', '/api/sync', { cookie: trainee.cookie, body: { deviceId: 'idioma-tablet', events: [ev('step.done', 2, { stepKey: 'work' })] } })
+    const trainer = (await call('GET', '/api/me', { cookie: await as('trainer') })).body.user
+    // The demo trainer's PIN (server/utils/demo-shop.ts), sealed to this event; a seal lives 72 h.
+    const signoff = { ...ev('signoff.given', 4, { stepKey: 'sign', signerId: trainer.id, signerRole: 'trainer', lang: 'es' }), at: new Date().toISOString() }
+    Object.assign(signoff, { seal: await seal(trainee.cookie, { runId, stepKey: 'sign', signerId: trainer.id, eventId: signoff.id, time: signoff.at, pin: '2468' }) })
+    const res = await call('POST', '/api/sync', { cookie: trainee.cookie, body: { deviceId: 'idioma-tablet', events: [signoff] } })
+    expect(res.body.rejected, res.text).toEqual([])
+    const summaryIn = async (language: string) => {
+      const audit = await call('GET', `/api/runs/${runId}/audit`, { cookie: await as('trainer'), headers: { 'accept-language': language } })
+      return audit.body.entries.find((e: any) => e.eventId === signoff.id)?.summary
+    }
+    expect(await summaryIn('es')).toBe('Signed off "Firma el trabajo" as trainer. Text on screen: es.')
+    expect(await summaryIn('en')).toBe('Signed off "Sign off" as trainer. Text on screen: es.')
   })
 
   it('refuses a language field that is not a language code, keeping the event visible as refused', async () => {

@@ -1,6 +1,6 @@
 import { v7 as uuidv7 } from 'uuid'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { as, call, db, otherShop } from './client'
+import { as, call, db, otherShop, signIn } from './client'
 import { deliveredMail } from './mail'
 
 // Mail the owner gets without asking: an alert for every hold override (written in the same
@@ -81,6 +81,42 @@ describe('override alerts', () => {
     expect(res.body.rejected.map((r: any) => r.id)).toEqual([id])
     const [[n]] = await db().query<any[]>('select count(*) as n from mail_outbox where dedupe_key like ?', [`override:${id}:%`])
     expect(Number(n.n)).toBe(0)
+  })
+
+  it('names the procedure and the hold in the owner\'s language where the version is translated', async () => {
+    const owner = await as('owner')
+    const email = `duena-${Date.now()}@demo.jogwise.test`
+    const made = await call('POST', '/api/users', { cookie: owner, body: { name: 'Dueña Prueba', email, role: 'owner', password: 'duena-prueba-1' } })
+    expect(made.status, made.text).toBe(201)
+    const her = await signIn(email, 'duena-prueba-1')
+    expect((await call('PATCH', '/api/me', { cookie: her, body: { language: 'es' } })).status).toBe(200)
+    // The demo shop's starter procedures come with Spanish (shared/procedures/starter/es).
+    const procedures = (await call('GET', '/api/procedures', { cookie: owner })).body
+    const procedure = procedures.find((p: any) => p.slug === 'spoilboard-resurfacing' || p.current.title === 'Resurface the spoilboard')
+    const version = (await call('GET', `/api/procedure-versions/${procedure.current.id}`, { cookie: owner })).body
+    const es = version.translations.es
+    const hold = version.steps.find((s: any) => s.kind === 'hold' && es.steps[s.key]?.title)
+    const id = uuidv7()
+    const run = uuidv7()
+    const base = { runId: run, actorId: ctx.trainer.id, deviceId: 'alert-tablet' }
+    const res = await call('POST', '/api/sync', { cookie: await as('trainer'), body: { deviceId: 'alert-tablet', events: [
+      { ...base, id: uuidv7(), type: 'run.started', at: new Date(Date.now() - 5000).toISOString(), procedureVersionId: procedure.current.id, machineId: ctx.machine.id, mode: 'solo' },
+      { ...base, id, type: 'hold.overridden', at: new Date(Date.now() - 4000).toISOString(), stepKey: hold.key, reason: 'Guard bracket is away for repair; spindle isolated and tagged out meanwhile' },
+    ] } })
+    expect(res.body.accepted).toHaveLength(2)
+    try {
+      const { mail } = await deliveredMail(`override:${id}:${made.body.id}`)
+      expect(mail.text).toContain(`"${es.steps[hold.key].title}"`)
+      expect(mail.text).toContain(es.title)
+      expect(mail.text).not.toContain(hold.title)
+      // An English-speaking owner still reads the original titles.
+      const english = (await activeOwners(ctx.shopId)).find(o => o.id !== made.body.id)!
+      expect((await deliveredMail(`override:${id}:${english.id}`)).mail.text).toContain(`"${hold.title}"`)
+    }
+    finally {
+      // Only this test's owner: the digest below counts the shop's owners.
+      await call('PATCH', `/api/users/${made.body.id}`, { cookie: owner, body: { active: false } })
+    }
   })
 })
 

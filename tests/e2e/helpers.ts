@@ -36,6 +36,11 @@ export async function pressAndHold(page: Page, name: RegExp | string, ms = 1800)
 /** Signs in, waits until the service worker controls the page and has the reads cached. */
 export async function signInForOffline(page: Page, role: keyof typeof DEMO) {
   await signIn(page, role)
+  await waitForOfflineReads(page)
+}
+
+/** Waits until the service worker controls the page and has the Floor's reads in its cache. */
+export async function waitForOfflineReads(page: Page) {
   await page.evaluate(() => navigator.serviceWorker.ready)
   await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true)
   // The warm-up reads go through the service worker into its cache.

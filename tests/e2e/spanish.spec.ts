@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs'
 import { expect, test, type Page } from '@playwright/test'
 import { flatten, type MessageTree } from '../../shared/i18n/translate'
-import { hydrated, pressAndHold, runReady } from './helpers'
+import { hydrated, pressAndHold, runReady, waitForOfflineReads } from './helpers'
 
 // The crew's languages in the browser (issue 16): a trainee whose profile says Spanish walks the
 // whole resurfacing run, guided, at 1024×768 and 768×1024. On every screen of the way no English
@@ -177,7 +177,6 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
     await spanishTrainee(page, `${viewport.width}`)
     await page.goto('/')
     await hydrated(page)
-    await hydrated(page)
     await expect(page.getByRole('heading', { level: 1, name: 'Taller', exact: true })).toBeVisible()
     await expect(page.locator('html')).toHaveAttribute('lang', 'es')
     await checkScreen(page, [], 'the Floor')
@@ -234,12 +233,7 @@ test('a Spanish screen reloads offline in Spanish and the hold acknowledged offl
   await hydrated(page)
   await expect(page.getByRole('heading', { level: 1, name: 'Taller', exact: true })).toBeVisible()
   // The service worker controls the page and has the reads and the language files.
-  await page.evaluate(() => navigator.serviceWorker.ready)
-  await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true)
-  await expect.poll(() => page.evaluate(async () => {
-    const cache = await caches.open('jogwise-api')
-    return (await cache.keys()).map(r => new URL(r.url).pathname)
-  }), { timeout: 15_000 }).toEqual(expect.arrayContaining(['/api/machines', '/api/procedures']))
+  await waitForOfflineReads(page)
   await expect.poll(() => page.evaluate(async () => {
     const urls: string[] = []
     for (const name of await caches.keys()) for (const r of await (await caches.open(name)).keys()) urls.push(new URL(r.url).pathname)

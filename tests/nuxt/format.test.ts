@@ -14,7 +14,7 @@ async function formatted(lang: 'en' | 'es') {
     const f = useFormat()
     out = {
       date: f.date(at), dateTime: f.dateTime(at), stamp: f.stamp(at), time: f.time(at),
-      ago: f.ago(new Date(at.getTime() - 5 * 60_000), at), now: f.ago(at, at), bad: f.dateTime('not a time'),
+      ago: f.ago(new Date(at.getTime() - 5 * 60_000), at), now: f.ago(at, at), recent: f.ago(new Date(at.getTime() - 40_000), at), ahead: f.ago(new Date(at.getTime() + 4000), at), bad: f.dateTime('not a time'),
       number: f.number(0.127), decimals: f.decimals('12.5 mm'),
     }
     return () => h('p')
@@ -32,6 +32,9 @@ describe('useFormat', () => {
     expect(f.stamp).toBe('3 Dec, 2:05:09 PM')
     expect(f.ago).toBe('5 minutes ago')
     expect(f.now).toBe('now')
+    // Within a minute, or a moment ahead (the last sync, read against a clock ticking every 15 s)
+    expect(f.recent).toBe('now')
+    expect(f.ahead).toBe('now')
   })
 
   it('writes Spanish dates, the 24-hour clock and the decimal comma', async () => {

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { LEDGER_KIND_LABELS, ledgerSummary } from '#shared/schemas/ledger'
 import { isLeadRole } from '#shared/types/roles'
+import { readTranslations } from '#shared/procedures'
 
 const ParamsSchema = z.object({ id: z.uuid() })
 
@@ -12,7 +13,7 @@ export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
   const db = useDB()
   // The run, only in this shop
-  await findShopRun(user, id)
+  const run = await findShopRun(user, id)
   // Arrival time of each of the run's events
   const events = await db.select({ id: tables.runEvents.id, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
     .where(and(eq(tables.runEvents.runId, id), eq(tables.runEvents.shopId, user.shopId)))
@@ -25,13 +26,22 @@ export default defineEventHandler(async (event) => {
     changedAt: l.changedAt, changedBy: l.changedBy, stepKey: l.stepKey, detail: l.detail, actorId: l.actorId, actorName: tables.users.name,
   }).from(l).innerJoin(tables.users, eq(tables.users.id, l.actorId))
     .where(and(eq(l.shopId, user.shopId), eq(l.runId, id))).orderBy(asc(l.at), asc(l.id))
+  // The step titles inside the entries in the reader's language, as the record shows the steps
+  const lang = callerLanguage(event)
+  const [version] = await db.select({ translations: tables.procedureVersions.translations })
+    .from(tables.procedureVersions).where(eq(tables.procedureVersions.id, run.procedureVersionId)).limit(1)
+  const translated = readTranslations(version?.translations)[lang]?.steps ?? {}
+  const withTitle = (stepKey: string | null, detail: Record<string, unknown>) => {
+    const title = stepKey ? translated[stepKey]?.title : undefined
+    return title && typeof detail.stepTitle === 'string' ? { ...detail, stepTitle: title } : detail
+  }
   return {
     received,
     entries: rows.map(r => ({
       id: r.id, eventId: r.eventId, kind: r.kind, kindLabel: LEDGER_KIND_LABELS[r.kind], at: r.at.toISOString(),
       receivedAt: r.receivedAt?.toISOString() ?? null, counted: r.counted, revision: r.revision,
       changedAt: r.changedAt?.toISOString() ?? null, changedBy: r.changedBy, stepKey: r.stepKey,
-      actorId: r.actorId, actorName: r.actorName, summary: ledgerSummary(r.kind, r.detail ?? {}),
+      actorId: r.actorId, actorName: r.actorName, summary: ledgerSummary(r.kind, withTitle(r.stepKey, r.detail ?? {})),
     })),
   }
 })
