@@ -267,3 +267,57 @@ test('a Spanish screen reloads offline in Spanish and the hold acknowledged offl
   expect(events.find((e: any) => e.type === 'hold.acknowledged')).toMatchObject({ stepKey: 'spindle-stopped', lang: 'es' })
   await context.close()
 })
+
+/** English on the screen once the shop's own data (names and notes typed in English) is left out. */
+async function englishBesides(page: Page, data: string[]) {
+  let text = await visibleText(page)
+  for (const d of data.filter(Boolean).sort((a, b) => b.length - a.length)) text = text.split(d).join(' ')
+  return ENGLISH_PIECES.filter(piece => text.includes(piece))
+}
+
+test('an owner in Spanish finds no English on the Board, Feeds, Cutters and Machines screens', async ({ page }) => {
+  test.setTimeout(120_000)
+  const owner = await page.request.post('/api/auth/login', { data: { email: 'owner@demo.jogwise.test', password: process.env.JOGWISE_DEMO_PASSWORD || 'shopfloor-demo-1' } })
+  expect(owner.ok()).toBe(true)
+  const email = `duena-${Date.now()}@demo.jogwise.test`
+  const made = await page.request.post('/api/users', { data: { name: 'Lucía Ferrer', email, role: 'owner', password: 'duena-demo-1' } })
+  expect(made.status(), await made.text()).toBe(201)
+  await page.request.post('/api/auth/logout')
+  expect((await page.request.post('/api/auth/login', { data: { email, password: 'duena-demo-1' } })).ok()).toBe(true)
+  expect((await page.request.patch('/api/me', { data: { language: 'es' } })).ok()).toBe(true)
+  // The shop's own words stay as they were typed: machine and cutter names and notes, reading notes.
+  const machines = await (await page.request.get('/api/machines')).json() as { id: number, name: string }[]
+  const tools = await (await page.request.get('/api/tools')).json() as { name: string, notes: string | null }[]
+  const readings = await (await page.request.get(`/api/machines/${machines[0]!.id}/readings`)).json() as { note: string | null }[]
+  const data = [...machines.map(m => m.name), ...tools.flatMap(t => [t.name, t.notes ?? '']), ...readings.map(r => r.note ?? '')]
+  const check = (where: string) => expect.soft.poll(() => englishBesides(page, data), { message: `English on ${where}`, timeout: 10_000 }).toEqual([])
+
+  await page.goto('/board')
+  await hydrated(page)
+  await expect(page.getByRole('heading', { level: 1 })).toContainText('Tabla')
+  // With readings on the machine the form opens with a tap; without, it is open already.
+  const logNew = page.getByRole('button', { name: 'Apuntar lecturas nuevas' })
+  if (await logNew.isVisible()) await logNew.click()
+  await expect(page.getByRole('button', { name: 'Guardar las lecturas' })).toBeVisible()
+  await check('the Board')
+
+  await page.goto('/feeds')
+  await hydrated(page)
+  await page.getByRole('textbox', { name: /Diámetro de la fresa/ }).fill('6,35')
+  await page.getByRole('textbox', { name: /Velocidad de corte/ }).fill('300')
+  await expect(page.locator('[data-result="rpm"]')).toContainText('rpm')
+  await check('Feeds')
+
+  await page.goto('/cutters')
+  await hydrated(page)
+  await page.getByRole('button', { name: 'Añadir fresa' }).click()
+  await expect(page.getByRole('form', { name: 'Fresa' })).toBeVisible()
+  await check('Cutters')
+
+  await page.goto('/machines')
+  await hydrated(page)
+  await page.getByRole('button', { name: 'Añadir máquina' }).click()
+  await page.getByRole('button', { name: 'Añadir máquina' }).last().click()
+  await expect(page.getByText('Escribe un nombre.')).toBeVisible()
+  await check('Machines')
+})
