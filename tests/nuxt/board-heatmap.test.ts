@@ -82,3 +82,21 @@ describe('BoardAnalysisPanel', () => {
     expect(w.find('[data-value="facings-left"]').text()).toContain('0')
   })
 })
+
+describe('the Board in Spanish', () => {
+  it('names the figures in Spanish and writes them with a decimal comma; units stay the machine\'s', async () => {
+    const i18n = useNuxtApp().$i18n
+    await i18n.setLocale('es')
+    try {
+      const w = await mountSuspended(BoardAnalysisPanel, { props: { analysis: analysisOf(F1, { nominalThickness: 19 }), units: 'mm', minThicknessMm: 12 } })
+      expect(w.text()).toContain('Planitud, zona mínima')
+      expect(w.find('[data-value="flatness-plane"]').text()).toBe('0,10 mm')
+      const map = await mountSuspended(BoardHeatMap, { props: { analysis: analysisOf(F1), grid: F1, units: 'mm' } })
+      expect(cell(map, 2, 2).find('span').text()).toBe('0,30')
+      expect(map.find('[data-testid="heatmap-legend"]').text()).toMatch(/0,00 Menos que cortar[\s\S]*Más que cortar 0,30/)
+    }
+    finally {
+      await i18n.setLocale('en')
+    }
+  })
+})
