@@ -28,7 +28,8 @@ test.describe('Board and Feeds at 1024×768', () => {
     const log = page.getByRole('button', { name: 'Log new readings' })
     if (await log.isVisible()) await log.click()
 
-    await page.getByRole('button', { name: '3 rows by 3 columns' }).click()
+    // The common sizes are one choice row (UiChoice): its radios are pressed through their labels.
+    await page.getByRole('group', { name: 'Common sizes, rows × columns' }).getByText('3 × 3', { exact: true }).click()
     await page.getByLabel('Spacing between columns (X)').fill('100')
     await page.getByLabel('Spacing between rows (Y)').fill('100')
     for (const [r, row] of F1.entries()) {
@@ -49,7 +50,7 @@ test.describe('Board and Feeds at 1024×768', () => {
     await expect(page.locator('[data-value="cleanup"]')).toHaveText('0.30 mm')
     const map = page.getByTestId('board-heatmap')
     await expect(map.locator('td')).toHaveCount(9)
-    await page.getByRole('button', { name: 'About plane' }).click()
+    await page.getByRole('group', { name: 'What the colours show' }).getByText('About plane', { exact: true }).click()
     await expect(map.locator('[data-cell="0-0"]')).toContainText('+0.05')
     await expect(map.locator('[data-cell="0-2"]')).toContainText('-0.05')
     await expect(map.locator('[data-cell="1-1"]')).toContainText('0.00')

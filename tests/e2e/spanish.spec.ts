@@ -24,11 +24,31 @@ async function visibleText(page: Page) {
   return page.evaluate(() => document.body.innerText)
 }
 
+/**
+ * What the shop typed in English, which stays as typed in every language: machine and cutter
+ * names and notes, reading notes, and procedures nobody has translated into Spanish (other
+ * tests add some). A cutter called "Straight bit 1/4 in" is not the app's "Straight bit" left
+ * in English.
+ */
+async function shopData(page: Page) {
+  const get = async (url: string) => (await page.request.get(url)).json()
+  const machines = await get('/api/machines') as { id: number, name: string }[]
+  const tools = await get('/api/tools') as { name: string, notes: string | null }[]
+  const readings = (await Promise.all(machines.map(m => get(`/api/machines/${m.id}/readings`)))).flat() as { note: string | null }[]
+  const procedures = await get('/api/procedures') as { current: { title: string, steps: { title: string, body: string }[], translations?: { es?: unknown } | null } }[]
+  const untranslated = procedures.filter(p => !p.current.translations?.es).flatMap(p => [p.current.title, ...p.current.steps.flatMap(s => [s.title, s.body])])
+  return [...machines.map(m => m.name), ...tools.flatMap(t => [t.name, t.notes ?? '']), ...readings.map(r => r.note ?? ''), ...untranslated]
+    .filter(Boolean).sort((a, b) => b.length - a.length)
+}
+let SHOP_DATA: string[] = []
+
 /** English left on the screen: the app's own messages and the procedure's original words. */
 async function englishOn(page: Page, steps: Step[]) {
   const text = await visibleText(page)
   const originals = steps.flatMap(s => [s.title, s.body])
-  return [...ENGLISH_PIECES, ...originals].filter(piece => text.includes(piece))
+  let own = text
+  for (const d of SHOP_DATA) own = own.split(d).join(' ')
+  return [...ENGLISH_PIECES.filter(piece => own.includes(piece)), ...originals.filter(piece => text.includes(piece))]
 }
 
 /** Text wider than its own box (cut off or spilling out), on the controls and headings. */
@@ -101,6 +121,7 @@ async function spanishTrainee(page: Page, tag: string) {
   const login = await page.request.post('/api/auth/login', { data: { email, password: 'aprendiz-demo-1' } })
   expect(login.ok()).toBe(true)
   expect((await page.request.patch('/api/me', { data: { language: 'es' } })).ok()).toBe(true)
+  SHOP_DATA = await shopData(page)
 }
 
 async function trainerSigns(page: Page) {
@@ -260,4 +281,47 @@ test('a Spanish screen reloads offline in Spanish and the hold acknowledged offl
   const { events } = await (await page.request.get(`/api/runs/${runId}`)).json()
   expect(events.find((e: any) => e.type === 'hold.acknowledged')).toMatchObject({ stepKey: 'spindle-stopped', lang: 'es' })
   await context.close()
+})
+
+test('an owner in Spanish finds no English on the Board, Feeds, Cutters and Machines screens', async ({ page }) => {
+  test.setTimeout(120_000)
+  const owner = await page.request.post('/api/auth/login', { data: { email: 'owner@demo.jogwise.test', password: process.env.JOGWISE_DEMO_PASSWORD || 'shopfloor-demo-1' } })
+  expect(owner.ok()).toBe(true)
+  const email = `duena-${Date.now()}@demo.jogwise.test`
+  const made = await page.request.post('/api/users', { data: { name: 'Lucía Ferrer', email, role: 'owner', password: 'duena-demo-1' } })
+  expect(made.status(), await made.text()).toBe(201)
+  await page.request.post('/api/auth/logout')
+  expect((await page.request.post('/api/auth/login', { data: { email, password: 'duena-demo-1' } })).ok()).toBe(true)
+  expect((await page.request.patch('/api/me', { data: { language: 'es' } })).ok()).toBe(true)
+  SHOP_DATA = await shopData(page)
+  const check = (where: string) => expect.soft.poll(() => englishOn(page, []), { message: `English on ${where}`, timeout: 10_000 }).toEqual([])
+
+  await page.goto('/board')
+  await hydrated(page)
+  await expect(page.getByRole('heading', { level: 1 })).toContainText('Tabla')
+  // With readings on the machine the form opens with a tap; without, it is open already.
+  const logNew = page.getByRole('button', { name: 'Apuntar lecturas nuevas' })
+  if (await logNew.isVisible()) await logNew.click()
+  await expect(page.getByRole('button', { name: 'Guardar las lecturas' })).toBeVisible()
+  await check('the Board')
+
+  await page.goto('/feeds')
+  await hydrated(page)
+  await page.getByRole('textbox', { name: /Diámetro de la fresa/ }).fill('6,35')
+  await page.getByRole('textbox', { name: /Velocidad de corte/ }).fill('300')
+  await expect(page.locator('[data-result="rpm"]')).toContainText('rpm')
+  await check('Feeds')
+
+  await page.goto('/cutters')
+  await hydrated(page)
+  await page.getByRole('button', { name: 'Añadir fresa' }).click()
+  await expect(page.getByRole('form', { name: 'Fresa' })).toBeVisible()
+  await check('Cutters')
+
+  await page.goto('/machines')
+  await hydrated(page)
+  await page.getByRole('button', { name: 'Añadir máquina' }).click()
+  await page.getByRole('button', { name: 'Añadir máquina' }).last().click()
+  await expect(page.getByText('Escribe un nombre.')).toBeVisible()
+  await check('Machines')
 })

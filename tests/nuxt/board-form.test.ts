@@ -37,7 +37,8 @@ describe('BoardReadingForm', () => {
   it('resizes the grid and keeps what was typed', async () => {
     const w = await mountSuspended(BoardReadingForm, { props: { machine } })
     await input(w, 1, 1).setValue('0.4')
-    await w.find('button[aria-label="9 rows by 5 columns"]').trigger('click')
+    // A common size is a radio in the one choice row (UiChoice).
+    await w.find('input[name="grid-preset"][value="9x5"]').setValue(true)
     expect(w.findAll('input[aria-label^="Row"]')).toHaveLength(45)
     expect((input(w, 1, 1).element as HTMLInputElement).value).toBe('0.4')
     // Suggested spacing spreads the grid over the travel less 50 mm each side, in 10 mm steps.

@@ -24,7 +24,7 @@ const cell = (w: VueWrapper, r: number, c: number) => w.find(`[data-cell="${r}-$
 describe('BoardHeatMap with the F1 saddle', () => {
   it('shows the residual about the best-fit plane in every cell: ±0.05 mm at the corners, 0 elsewhere', async () => {
     const w = await mountSuspended(BoardHeatMap, { props: { analysis: analysisOf(F1), grid: F1, units: 'mm' } })
-    await w.findAll('button').find(b => b.text() === 'About plane')!.trigger('click')
+    await w.find('input[name="heatmap-view"][value="plane"]').setValue(true)
     const expected = [['+0.05', '0.00', '-0.05'], ['0.00', '0.00', '0.00'], ['-0.05', '0.00', '+0.05']]
     for (const [r, row] of expected.entries()) {
       for (const [c, text] of row.entries()) expect(cell(w, r, c).find('span').text()).toBe(text)
@@ -54,7 +54,7 @@ describe('BoardHeatMap with the F1 saddle', () => {
 
   it('converts to inches exactly: 0.05 mm is 0.0020 in (1 in = 25.4 mm, NBS Circular 572 addendum)', async () => {
     const w = await mountSuspended(BoardHeatMap, { props: { analysis: analysisOf(F1), grid: F1, units: 'in' } })
-    await w.findAll('button').find(b => b.text() === 'About plane')!.trigger('click')
+    await w.find('input[name="heatmap-view"][value="plane"]').setValue(true)
     expect(cell(w, 0, 0).find('span').text()).toBe('+0.0020')
     expect(w.find('thead').text()).toContain('7.87') // 200 mm = 7.874 in
   })
@@ -80,5 +80,23 @@ describe('BoardAnalysisPanel', () => {
     expect(alert.text()).toContain('Below the minimum thickness')
     expect(alert.text()).toContain('11.90 mm')
     expect(w.find('[data-value="facings-left"]').text()).toContain('0')
+  })
+})
+
+describe('the Board in Spanish', () => {
+  it('names the figures in Spanish and writes them with a decimal comma; units stay the machine\'s', async () => {
+    const i18n = useNuxtApp().$i18n
+    await i18n.setLocale('es')
+    try {
+      const w = await mountSuspended(BoardAnalysisPanel, { props: { analysis: analysisOf(F1, { nominalThickness: 19 }), units: 'mm', minThicknessMm: 12 } })
+      expect(w.text()).toContain('Planitud, zona mínima')
+      expect(w.find('[data-value="flatness-plane"]').text()).toBe('0,10 mm')
+      const map = await mountSuspended(BoardHeatMap, { props: { analysis: analysisOf(F1), grid: F1, units: 'mm' } })
+      expect(cell(map, 2, 2).find('span').text()).toBe('0,30')
+      expect(map.find('[data-testid="heatmap-legend"]').text()).toMatch(/0,00 Menos que cortar[\s\S]*Más que cortar 0,30/)
+    }
+    finally {
+      await i18n.setLocale('en')
+    }
   })
 })

@@ -81,3 +81,52 @@ describe('pickLanguage (Accept-Language, RFC 9110 §12.5.4)', () => {
     expect(pickLanguage('es;q=0, en', supported)).toBe('en')
   })
 })
+
+describe('messages of the Board, Machines, Cutters, Feeds, Planner and due intervals', () => {
+  // Issues made by the real schemas, so a message reworded without its template fails here.
+  const firstIssue = (result: { success: boolean, error?: { issues: { path: PropertyKey[], message: string }[] } }, path: string) =>
+    result.error?.issues.find(i => i.path.join('.') === path)?.message ?? ''
+
+  it('translates a machine\'s field issues, labels included', async () => {
+    const { MachineCreateSchema } = await import('../../../shared/schemas/machine')
+    const r = MachineCreateSchema.safeParse({ name: 'A', units: 'mm', travelXMm: 0.5, travelYMm: 600, travelZMm: 90, spindleKind: 'trim-router', hasLengthSensor: true, spoilboardMaterial: 'MDF', spoilboardNominalMm: 18, spoilboardMinMm: 20 })
+    expect(translateText(firstIssue(r, 'travelXMm'), EN, ES)).toBe('Recorrido en X: debe ser al menos 1 mm.')
+    expect(translateText(firstIssue(r, 'spoilboardMinMm'), EN, ES)).toBe('El espesor mínimo tiene que ser menor que el espesor nominal.')
+  })
+
+  it('translates a cutter\'s issues and the route\'s own refusals', async () => {
+    const { ToolCreateSchema } = await import('../../../shared/schemas/tool')
+    const r = ToolCreateSchema.safeParse({ name: 'A', kind: 'surfacing', diameterMm: 10, flutes: 20, cornerRadiusMm: 0, maxRpm: 500 })
+    expect(translateText(firstIssue(r, 'flutes'), EN, ES)).toBe('Más de 16 filos no es una fresa de router.')
+    expect(translateText(firstIssue(r, 'maxRpm'), EN, ES)).toBe('Velocidad máxima: debe ser al menos 1000 rpm.')
+    // server/api/tools/[id].patch.ts and notFound('cutter')
+    expect(translateText('The corner radius cannot be more than half the diameter.', EN, ES)).toBe('El radio de esquina no puede pasar de la mitad del diámetro.')
+    expect(translateText('No such cutter.', EN, ES)).toBe('No existe: fresa.')
+  })
+
+  it('translates a board reading\'s cell issues with their row and column', async () => {
+    const { ReadingBodySchema } = await import('../../../shared/schemas/board')
+    const r = ReadingBodySchema.safeParse({ kind: 'thickness', units: 'mm', grid: [[18, 'x'], [18, 0]], spacing: { x: 100, y: 100 } })
+    expect(translateText(firstIssue(r, 'grid.0.1'), EN, ES)).toBe('La lectura de la fila 1, columna 2, no es un número.')
+    // server/api/machines/[id]/readings.post.ts
+    expect(translateText('Big Table is retired; bring it back before logging readings.', EN, ES)).toBe('Big Table está dada de baja; recupérala antes de apuntar lecturas.')
+    expect(translateText('The body names machine 3 but the address names machine 4.', EN, ES)).toBe('El cuerpo nombra la máquina 3 pero la dirección nombra la máquina 4.')
+  })
+
+  it('translates the Planner\'s and the Feeds screen\'s checks', async () => {
+    const { SurfacingInputSchema, FeedsInputSchema } = await import('../../../shared/machining')
+    const plan = SurfacingInputSchema.safeParse({ units: 'mm', area: { x: 600, y: 600 }, cutter: { diameter: 25, flutes: 2 }, stepoverPct: 50, totalDepth: 1, depthPerPass: 20, feed: 2500, plunge: 500, rpm: 16000, direction: 'x', pattern: 'zigzag', safeZ: 5 })
+    expect(translateText(firstIssue(plan, 'depthPerPass'), EN, ES))
+      .toBe('Profundidad por pasada: 20.00 mm pasa de la mitad del diámetro de la fresa (12.50 mm); es demasiado hondo para una pasada.')
+    const feeds = FeedsInputSchema.safeParse({ units: 'mm', diameter: 10, flutes: 2, rpm: 18000, widthOfCut: 5 })
+    expect(translateText(firstIssue(feeds, 'depthOfCut'), EN, ES)).toBe('El caudal de viruta necesita el ancho y la profundidad de corte.')
+  })
+
+  it('translates a maintenance interval\'s issues', async () => {
+    const { IntervalCreateSchema } = await import('../../../shared/schemas/maintenance')
+    const r = IntervalCreateSchema.safeParse({ procedureId: 1, everyDays: null, everySpindleHours: null })
+    expect(translateText(firstIssue(r, 'everyDays'), EN, ES)).toBe('Pon un número de días, de horas de husillo o los dos.')
+    const long = IntervalCreateSchema.safeParse({ procedureId: 1, everyDays: 4000 })
+    expect(translateText(firstIssue(long, 'everyDays'), EN, ES)).toBe('Días: como mucho 3650 (diez años).')
+  })
+})
