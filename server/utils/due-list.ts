@@ -14,7 +14,10 @@ export interface DueItem {
   machineId: number
   machineName: string
   status: DueStatus
+  /** In English, for mail and CSV; screens write it from the facts below in the reader's language. */
   reason: string
+  /** Whole days since it was last done, or since the machine was added; null when neither is known. */
+  daysSince: number | null
   lastDoneAt: string | null
   dueAt: string | null
   spindleHoursSince: number | null
@@ -41,11 +44,12 @@ export interface IntervalFacts {
 }
 
 /** The status of one interval from its facts; pure, so the rule is testable on its own. */
-export function dueStatusOf(f: IntervalFacts, now: Date): { status: DueStatus, reason: string, dueAt: Date | null } {
+export function dueStatusOf(f: IntervalFacts, now: Date): { status: DueStatus, reason: string, dueAt: Date | null, daysSince: number | null } {
   const since = f.lastDoneAt ?? f.addedAt ?? null
+  const daysSince = since ? Math.floor((now.getTime() - since.getTime()) / DAY_MS) : null
   if (!since) {
     const every = [f.everyDays ? `every ${f.everyDays} days` : '', f.everySpindleHours ? `every ${f.everySpindleHours} spindle hours` : ''].filter(Boolean).join(' or ')
-    return { status: 'overdue', reason: `Never done; ${every}.`, dueAt: null }
+    return { status: 'overdue', reason: `Never done; ${every}.`, dueAt: null, daysSince }
   }
   let status: DueStatus = 'ok'
   const reasons: string[] = []
@@ -54,7 +58,7 @@ export function dueStatusOf(f: IntervalFacts, now: Date): { status: DueStatus, r
     dueAt = new Date(since.getTime() + f.everyDays * DAY_MS)
     const windowMs = Math.max(DUE_WINDOW_MIN_DAYS, f.everyDays * DUE_WINDOW_SHARE) * DAY_MS
     const left = dueAt.getTime() - now.getTime()
-    const days = Math.floor((now.getTime() - since.getTime()) / DAY_MS)
+    const days = daysSince!
     const s: DueStatus = left < 0 ? 'overdue' : left <= windowMs ? 'due' : 'ok'
     if (STATUS_RANK[s] > STATUS_RANK[status]) status = s
     reasons.push(`${f.lastDoneAt ? 'last done' : 'not done yet; machine added'} ${days} day${days === 1 ? '' : 's'} ago, every ${f.everyDays} days`)
@@ -66,7 +70,7 @@ export function dueStatusOf(f: IntervalFacts, now: Date): { status: DueStatus, r
     reasons.push(`${f.lastDoneAt || f.everyDays ? '' : 'not done yet; '}${round1(h)} of ${f.everySpindleHours} spindle hours used`)
   }
   const text = reasons.join('; ')
-  return { status, reason: text.charAt(0).toUpperCase() + text.slice(1) + '.', dueAt }
+  return { status, reason: text.charAt(0).toUpperCase() + text.slice(1) + '.', dueAt, daysSince }
 }
 
 function round1(n: number) {
@@ -114,10 +118,10 @@ export async function listDueItems(shopId: number, now = new Date()): Promise<Du
     for (const m of machines.filter(m => i.machineId === null || m.id === i.machineId)) {
       const lastDoneAt = lastDone.get(`${m.id}:${i.procedureId}`) ?? null
       const spindleHoursSince = i.everySpindleHours ? await spindleSince(m.id, lastDoneAt) : 0
-      const { status, reason, dueAt } = dueStatusOf({ everyDays: i.everyDays, everySpindleHours: i.everySpindleHours, lastDoneAt, addedAt: m.createdAt, spindleHoursSince }, now)
+      const { status, reason, dueAt, daysSince } = dueStatusOf({ everyDays: i.everyDays, everySpindleHours: i.everySpindleHours, lastDoneAt, addedAt: m.createdAt, spindleHoursSince }, now)
       out.push({
         intervalId: i.id, procedureId: i.procedureId, procedureTitle: i.title ?? `Procedure ${i.procedureId}`,
-        machineId: m.id, machineName: m.name, status, reason,
+        machineId: m.id, machineName: m.name, status, reason, daysSince,
         lastDoneAt: lastDoneAt?.toISOString() ?? null, dueAt: dueAt?.toISOString() ?? null,
         spindleHoursSince: i.everySpindleHours ? round1(spindleHoursSince) : null,
         everyDays: i.everyDays, everySpindleHours: i.everySpindleHours,

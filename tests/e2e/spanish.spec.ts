@@ -193,7 +193,8 @@ async function completeRunInSpanish(page: Page, runId: string, steps: Step[], es
 
 for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024 }]) {
   test(`a trainee in Spanish walks the whole resurfacing run at ${viewport.width}×${viewport.height}`, async ({ page }) => {
-    test.setTimeout(300_000)
+    // A whole 34-step run with a check of every screen: about 3–5 min on a busy 2-core machine.
+    test.setTimeout(480_000)
     await page.setViewportSize(viewport)
     await spanishTrainee(page, `${viewport.width}`)
     await page.goto('/')
