@@ -29,6 +29,9 @@ cleanup() {
 }
 trap cleanup EXIT
 prepare_app "$DB_DIR" "$DB_PORT" "$DB_NAME" "$OUT_DIR" "$DATA_DIR/bench-build.log" fresh >/dev/null
+# The server reaches this machine's MariaDB through its Unix socket (db.ts), as a local install
+# would; JOGWISE_BENCH_TCP=1 keeps it on loopback TCP, as the plain-INSERT comparison is.
+[ "${JOGWISE_BENCH_TCP:-0}" = 1 ] || export NUXT_DB_SOCKET="$DATA_DIR/$DB_DIR/mariadb.sock"
 NUXT_SESSION_PASSWORD=bench-session-secret-0123456789abcdef NUXT_DEMO_SEED=1 NUXT_DEMO_PASSWORD="$JOGWISE_DEMO_PASSWORD" \
   PORT="$PORT_BENCH" HOST=127.0.0.1 setsid node ${JOGWISE_BENCH_NODE_FLAGS:-} "$OUT_DIR/server/index.mjs" > "$DATA_DIR/bench-server.log" 2>&1 < /dev/null &
 echo $! > "$PID"

@@ -435,15 +435,13 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
  * or on a retired procedure, is refused, unless the tablet started it (its own clock) before
  * the newer version was published or the procedure retired: it was offline and could not know.
  */
-async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.started' }>, procedureId: number): Promise<string | null> {
+async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.started' }>, procedureId: number, procedureRetiredAt: Date | null): Promise<string | null> {
   const db = useDB()
   const startedAt = Date.parse(event.at)
-  // The procedure and the versions published after this one
-  const [procedure] = await db.select({ retiredAt: tables.procedures.retiredAt }).from(tables.procedures)
-    .where(eq(tables.procedures.id, procedureId)).limit(1)
-  if (procedure?.retiredAt && procedure.retiredAt.getTime() <= startedAt) {
+  if (procedureRetiredAt && procedureRetiredAt.getTime() <= startedAt) {
     return 'This procedure was retired before the run started; it can no longer be run.'
   }
+  // The versions published after this one
   const [newer] = await db.select({ version: tables.procedureVersions.version, createdAt: tables.procedureVersions.createdAt })
     .from(tables.procedureVersions)
     .where(and(eq(tables.procedureVersions.procedureId, procedureId), gt(tables.procedureVersions.id, event.procedureVersionId)))
@@ -457,21 +455,22 @@ async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.star
 /** Is this person allowed to start this run here? Returns the reason when not. */
 async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>): Promise<string | null> {
   const db = useDB()
-  // The machine, in this shop
-  const [machine] = await db.select({ retiredAt: tables.machines.retiredAt }).from(tables.machines)
-    .where(and(eq(tables.machines.id, event.machineId), eq(tables.machines.shopId, user.shopId))).limit(1)
-  if (!machine) return 'No such machine in this shop.'
-  if (machine.retiredAt) return 'That machine is retired.'
-  // The version, in this shop
-  const [version] = await db.select({ procedureId: tables.procedureVersions.procedureId }).from(tables.procedureVersions)
-    .where(and(eq(tables.procedureVersions.id, event.procedureVersionId), eq(tables.procedureVersions.shopId, user.shopId))).limit(1)
-  if (!version) return 'No such procedure version in this shop.'
-  const outdated = await outdatedVersionProblem(event, version.procedureId)
+  const m = tables.machines
+  const v = tables.procedureVersions
+  // The machine, in this shop, with the version (in this shop) and its procedure: one statement (issue 14)
+  const [found] = await db.select({ retiredAt: m.retiredAt, procedureId: v.procedureId, procedureRetiredAt: tables.procedures.retiredAt }).from(m)
+    .leftJoin(v, and(eq(v.id, event.procedureVersionId), eq(v.shopId, user.shopId)))
+    .leftJoin(tables.procedures, eq(tables.procedures.id, v.procedureId))
+    .where(and(eq(m.id, event.machineId), eq(m.shopId, user.shopId))).limit(1)
+  if (!found) return 'No such machine in this shop.'
+  if (found.retiredAt) return 'That machine is retired.'
+  if (found.procedureId === null) return 'No such procedure version in this shop.'
+  const outdated = await outdatedVersionProblem(event, found.procedureId, found.procedureRetiredAt)
   if (outdated) return outdated
   if (event.mode === 'solo') {
     // Is this person qualified to run this procedure unsupervised?
     const [q] = await db.select({ id: tables.qualifications.id }).from(tables.qualifications)
-      .where(and(eq(tables.qualifications.userId, user.id), eq(tables.qualifications.procedureId, version.procedureId))).limit(1)
+      .where(and(eq(tables.qualifications.userId, user.id), eq(tables.qualifications.procedureId, found.procedureId))).limit(1)
     if (runModeFor(user.role, !!q) !== 'solo') {
       return user.role === 'trainee'
         ? 'A trainee\'s run is always guided.'
