@@ -103,21 +103,21 @@ describe('quickRunEvent', () => {
       }
     }
     expect(vouched).toBeGreaterThan(300)
-  })
+  }, 60_000) // about 40,000 parses: seconds on a busy machine
 
-  it('agrees with the zod schema on 20,000 drawn events, well-formed and damaged', () => {
+  it('agrees with the zod schema on 8,000 drawn events, well-formed and damaged', () => {
     const rand = random(14)
     let vouched = 0
     let refused = 0
-    for (let i = 0; i < 20_000; i++) {
+    for (let i = 0; i < 8_000; i++) {
       const { quick, ok } = agree(draw(rand))
       vouched += Number(quick)
       refused += Number(!ok)
     }
     // The draw reaches both sides often enough for the comparison to mean something.
-    expect(vouched).toBeGreaterThan(3000)
-    expect(refused).toBeGreaterThan(3000)
-  })
+    expect(vouched).toBeGreaterThan(2000)
+    expect(refused).toBeGreaterThan(2000)
+  }, 60_000)
 
   it('leaves a field it does not know, text with spaces around it and a verdict to the schema', () => {
     expect(quickRunEvent({ ...wellFormed('step.done'), extra: 1 })).toBeUndefined()
