@@ -65,7 +65,8 @@ export default defineNuxtConfig({
   },
   // Every key is empty here and filled from NUXT_* variables (see .env.example).
   runtimeConfig: {
-    db: { host: '127.0.0.1', port: '3417', user: 'jogwise', password: '', name: 'jogwise' },
+    /** socket: MariaDB's Unix socket when it runs on this machine (cheaper than loopback TCP); empty means host and port. */
+    db: { host: '127.0.0.1', port: '3417', user: 'jogwise', password: '', name: 'jogwise', socket: '' },
     /** Seed the invented demo shop when the database holds no shop yet. */
     demoSeed: '',
     /** Demo password printed by npm start; used only by the seed. */

@@ -1,6 +1,7 @@
 // Sync benchmark: 20 000 run events merged in batches of 500 through POST /api/sync on
 // loopback, then the same number of rows written with plain mysql2 multi-row INSERTs into the
 // same table, for comparison. Run: npm run bench:sync
+import { readFileSync } from 'node:fs'
 import mysql from 'mysql2/promise'
 import { v7 as uuidv7 } from 'uuid'
 
@@ -31,13 +32,28 @@ function batchFor(runId: string) {
   return events
 }
 
+// CPU time (user + system, ms) the app server and MariaDB spend: on a shared machine the wall
+// clock moves with the other work on it, the CPU each side uses much less (Linux /proc).
+function cpuMs(pidFile: string) {
+  try {
+    const pid = readFileSync(pidFile, 'utf8').trim()
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
+    return (Number(fields[11]) + Number(fields[12])) * 1000 / 100 // utime + stime, in clock ticks of 1/100 s
+  }
+  catch { return Number.NaN }
+}
+const serverPidFile = process.env.JOGWISE_BENCH_SERVER_PID_FILE || '.data/bench-server.pid'
+const dbPidFile = `.data/${process.env.JOGWISE_BENCH_DB_DIR || 'mariadb-test'}/mariadb.pid`
+
 const batches = Array.from({ length: TOTAL / BATCH }, () => batchFor(uuidv7()))
+const cpu0 = { server: cpuMs(serverPidFile), db: cpuMs(dbPidFile) }
 let t = performance.now()
 for (const events of batches) {
   const { body } = await json('/api/sync', { method: 'POST', cookie, body: JSON.stringify({ deviceId: 'bench-tablet', events }) })
   if (body.accepted.length !== events.length) throw new Error(`rejected: ${JSON.stringify(body.rejected.slice(0, 3))}`)
 }
 const syncMs = performance.now() - t
+const syncCpu = { server: cpuMs(serverPidFile) - cpu0.server, db: cpuMs(dbPidFile) - cpu0.db }
 
 // The same rows, straight into MariaDB.
 const db = await mysql.createConnection({
@@ -45,6 +61,7 @@ const db = await mysql.createConnection({
   user: 'jogwise', password: process.env.NUXT_DB_PASSWORD || 'jogwise-local', database: process.env.NUXT_DB_NAME || 'jogwise_bench',
 })
 const [[shop]] = await db.query<any[]>('select shop_id from users where id = ?', [me.id])
+const rawDb0 = cpuMs(dbPidFile)
 t = performance.now()
 for (const events of batches) {
   const runId = uuidv7()
@@ -55,6 +72,7 @@ for (const events of batches) {
   await db.query('insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ?', [rows])
 }
 const rawMs = performance.now() - t
+const rawDbCpu = cpuMs(dbPidFile) - rawDb0
 const [[count]] = await db.query<any[]>('select count(*) as n from run_events')
 await db.end()
 
@@ -62,4 +80,5 @@ const rate = (ms: number) => Math.round(TOTAL / (ms / 1000))
 console.log(`events: ${TOTAL} in batches of ${BATCH} (rows in run_events now: ${count.n})`)
 console.log(`POST /api/sync: ${syncMs.toFixed(0)} ms, ${rate(syncMs)} events/s (validation, authorization, dedupe, insert, fold, flags)`)
 console.log(`plain INSERT:   ${rawMs.toFixed(0)} ms, ${rate(rawMs)} events/s`)
+console.log(`CPU during the merge: app server ${syncCpu.server.toFixed(0)} ms, MariaDB ${syncCpu.db.toFixed(0)} ms; during the plain INSERTs: MariaDB ${rawDbCpu.toFixed(0)} ms`)
 console.log(`ratio sync/raw: ${(rawMs / syncMs).toFixed(2)} (aim ≥ 0.5)`)

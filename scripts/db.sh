@@ -47,6 +47,8 @@ start() {
   client -e "CREATE DATABASE IF NOT EXISTS \`$dbname\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
     CREATE USER IF NOT EXISTS '$dbuser'@'127.0.0.1' IDENTIFIED BY '$dbpass';
     GRANT ALL PRIVILEGES ON \`$dbname\`.* TO '$dbuser'@'127.0.0.1';
+    CREATE USER IF NOT EXISTS '$dbuser'@'localhost' IDENTIFIED BY '$dbpass';
+    GRANT ALL PRIVILEGES ON \`$dbname\`.* TO '$dbuser'@'localhost';
     FLUSH PRIVILEGES;"
 }
 

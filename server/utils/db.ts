@@ -15,11 +15,14 @@ export function useDB() {
   if (!db) {
     const { db: cfg } = useRuntimeConfig()
     const nodes = parseDbHosts(String(cfg.host ?? ''), Number(cfg.port) || 3306)
+    const socket = String(cfg.socket ?? '')
     pool = mysql.createPool({
       host: nodes[0]!.host,
       port: nodes[0]!.port,
       // Several nodes (a Galera cluster): each new connection goes to the node in use (db-nodes)
       ...(nodes.length > 1 && { stream: nodeStream(nodes) }),
+      // One MariaDB on this machine: its Unix socket spares every statement the loopback TCP path (issue 14)
+      ...(nodes.length === 1 && socket && { socketPath: socket }),
       user: cfg.user,
       password: cfg.password,
       database: cfg.name,

@@ -43,7 +43,17 @@ const keyOf = (eventId: string, kind: string) => `${eventId}:${kind}`
 /** A stored event as the Ledger needs it; refoldRuns passes the rows it has just read. */
 export interface LedgerEventRow { id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, receivedAt: Date, payload: Record<string, unknown> }
 
-export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[], arrivedIds: readonly string[] = [], runEvents?: LedgerEventRow[]) {
+/**
+ * `summaries`: what refoldRuns writes back to each run's row, set in the same UPDATE as its
+ * spindle time (one statement per run, issue 14). `peopleIds`: the shop's people, when the
+ * caller has just read them.
+ */
+export interface LedgerWriteOptions {
+  summaries?: ReadonlyMap<string, Pick<typeof tables.runs.$inferInsert, 'status' | 'currentStepKey' | 'finishedAt'>>
+  peopleIds?: ReadonlySet<number>
+}
+
+export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[], arrivedIds: readonly string[] = [], runEvents?: LedgerEventRow[], options: LedgerWriteOptions = {}) {
   if (!folded.length) return
   const runIds = folded.map(f => f.run.id)
   const l = tables.ledgerEntries
@@ -85,7 +95,7 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
 
   // Sign-offs are entered under the signer; fall back to the sender if that is not a person of
   // this shop (actor_id must name one).
-  const people = new Set((await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.shopId, shopId))).map(p => p.id))
+  const people = options.peopleIds ?? new Set((await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.shopId, shopId))).map(p => p.id))
 
   const inserts: Row[] = []
   const changes: { old: typeof existing[number], now: Row | null, base: { shopId: number, runId: string, machineId: number, procedureId: number } }[] = []
@@ -138,7 +148,7 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
     }
 
     const minutes = spindleMinutesOf(f.state, f.steps, id => planMinutes.get(id) ?? null)
-    await db.update(tables.runs).set({ spindleMinutes: minutes }).where(eq(tables.runs.id, f.run.id))
+    await db.update(tables.runs).set({ ...options.summaries?.get(f.run.id), spindleMinutes: minutes }).where(eq(tables.runs.id, f.run.id))
   }
   // ignore(): two merges folding the same run at once may both try to add the same entry
   if (inserts.length) await db.insert(l).ignore().values(inserts)

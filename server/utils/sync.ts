@@ -1,5 +1,6 @@
 import mysql from 'mysql2'
-import { foldRun, parseRunEvent } from '#shared/runs'
+import { foldRun } from '#shared/runs'
+import { checkRunEvent } from '#shared/runs/event-check'
 import type { RunEvent } from '#shared/runs'
 import type { ServerEvent, SyncRejection, SyncRequest, SyncResponse } from '#shared/schemas/sync'
 import { isLeadRole, runModeFor } from '#shared/types/roles'
@@ -17,15 +18,31 @@ const BASE_KEYS = new Set(['id', 'runId', 'type', 'at', 'actorId', 'deviceId'])
 interface StoredRow { seq: number, id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, payload: Record<string, unknown>, flag: string | null }
 /** A stored event as the fold and the Ledger read it. */
 type FoldRow = Omit<StoredRow, 'seq'> & { receivedAt: Date }
-/** A run whose row and stored events the caller already has (a fresh run, freshRows). */
-interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[] }
+/** A run whose row and stored events the caller already has (a fresh run, freshRows): the rows and, in the same order, the fold's events. */
+interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[], events: RunEvent[] }
+
+/**
+ * `{ ...payload, ...envelope }` (a key of both keeps the payload's place, the envelope's value),
+ * copied key by key: node's V8 builds such a spread literal about fifty times slower, and a
+ * merge makes one per stored event (issue 14).
+ */
+function withEnvelope<T extends object>(payload: Record<string, unknown>, envelope: T): Record<string, unknown> & T {
+  const out: Record<string, unknown> = {}
+  for (const k of Object.keys(payload)) {
+    // Stored JSON may hold an own "__proto__" key: kept as data, as the spread keeps it.
+    if (k === '__proto__') Object.defineProperty(out, k, { value: payload[k], enumerable: true, writable: true, configurable: true })
+    else out[k] = payload[k]
+  }
+  for (const k of Object.keys(envelope) as (keyof T & string)[]) out[k] = envelope[k]
+  return out as Record<string, unknown> & T
+}
 
 export function toServerEvent(row: StoredRow): ServerEvent {
-  return { ...row.payload, id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId, seq: row.seq, flag: row.flag }
+  return withEnvelope(row.payload, { id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId, seq: row.seq, flag: row.flag })
 }
 
 export function toRunEvent(row: Omit<StoredRow, 'seq'>): RunEvent {
-  return { ...row.payload, id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId } as RunEvent
+  return withEnvelope(row.payload, { id: row.id, runId: row.runId, type: row.type, at: row.at.toISOString(), actorId: row.actorId, deviceId: row.deviceId }) as unknown as RunEvent
 }
 
 function payloadOf(event: RunEvent): Record<string, unknown> {
@@ -54,7 +71,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   const seenInBatch = new Set<string>()
   const now = Date.now()
   for (const raw of request.events) {
-    const parsed = parseRunEvent(raw)
+    // The zod schema's rules, precompiled for the common case (event-check.ts); zod for the rest
+    const parsed = checkRunEvent(raw)
     if (!parsed.ok) {
       reject(raw.id, parsed.issues.map(i => (i.path ? `${i.path}: ${i.message}` : i.message)).join(' '))
       continue
@@ -78,9 +96,9 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
 
   // 2. Ids already stored: the same event again is accepted (a replay), another one is not.
   const ids = candidates.map(c => c.event.id)
+  // Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14).
   const existing = ids.length
-    ? await db.select({ id: tables.runEvents.id, runId: tables.runEvents.runId, shopId: tables.runEvents.shopId })
-      .from(tables.runEvents).where(inArray(tables.runEvents.id, ids))
+    ? await selectRows<{ id: string, runId: string, shopId: number }>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
     : []
   const existingById = new Map(existing.map(e => [e.id, e]))
 
@@ -99,6 +117,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     pinHash: tables.users.pinHash, passwordHash: tables.users.passwordHash,
   }).from(tables.users).where(eq(tables.users.shopId, user.shopId))
   const personById = new Map(people.map(p => [p.id, p]))
+  // The Ledger names people of this shop only (ledger-write.ts): read here once, not again per run
+  const peopleIds = new Set(people.map(p => p.id))
   // Who may act on the runs already stored (run-actors.ts), and what this person may do solo
   const crews = await loadRunCrews(db, user.shopId, runRows.filter(r => r.shopId === user.shopId))
   const qualifiedFor = new Set((await db.select({ procedureId: tables.qualifications.procedureId }).from(tables.qualifications)
@@ -194,7 +214,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       // different events: the seal also names its event, whose id is unique.
       if (nonces.length) await tx.insert(tables.signoffNonces).values(nonces).onDuplicateKeyUpdate({ set: { nonce: sql`nonce` } })
       for (const runId of new Set(toInsert.map(e => e.runId))) {
-        const one = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId))
+        const one = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId), peopleIds)
         for (const id of one.stored) ok.add(id)
         refused.push(...one.rejected)
       }
@@ -222,12 +242,19 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     const [top] = await db.select({ seq: sql<number | null>`max(${e.seq})` }).from(e).where(newer)
     cursor = Math.max(cursor, Number(top?.seq ?? 0))
     const own = [...sentIds].filter((id): id is string => typeof id === 'string')
+    // The list of own ids is escaped by mysql2 (drizzle's builder was slower than the query, issue 14).
     const rows = await db.select(storedColumns).from(e)
-      .where(own.length ? and(newer, or(sql`${e.id} not in (${sql.join(own.map(id => sql`${id}`), sql`, `)})`, sql`json_exists(${e.payload}, '$.verdict')`)) : newer)
+      .where(own.length ? and(newer, or(sql.raw(mysql.format('run_events.id not in (?)', [own])), sql`json_exists(${e.payload}, '$.verdict')`)) : newer)
       .orderBy(asc(e.seq))
     for (const row of rows) events.push(toServerEvent(row))
   }
   return { accepted, rejected, events, cursor }
+}
+
+/** Rows of one read written with mysql2's own escaping (values as mysql2 returns them). */
+async function selectRows<T>(db: DB, statement: string, values: Parameters<typeof mysql.format>[1]): Promise<T[]> {
+  const [rows] = await db.execute(sql.raw(mysql.format(statement, values))) as unknown as [T[]]
+  return rows
 }
 
 /** Was this seal nonce stored with an earlier sign-off? */
@@ -271,8 +298,8 @@ function sizeProblem(sizes: Map<string, { events: number, notes: number }>, even
 // to store them (issue 14); mysql2's own escaping (format) writes the same statement directly.
 // Times as drizzle writes a timestamp column: UTC, milliseconds kept.
 const sqlTime = (iso: string) => new Date(iso).toISOString().slice(0, -1).replace('T', ' ')
-function insertEventsSql(shopId: number, events: RunEvent[]) {
-  const rows = events.map(e => [e.id, shopId, e.runId, e.type, e.actorId, e.deviceId, sqlTime(e.at), JSON.stringify(payloadOf(e))])
+function insertEventsSql(shopId: number, events: RunEvent[], json: Map<string, string>) {
+  const rows = events.map(e => [e.id, shopId, e.runId, e.type, e.actorId, e.deviceId, sqlTime(e.at), json.get(e.id)])
   // These events' rows; a duplicate id changes nothing
   return mysql.format('insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ? on duplicate key update id = id', [rows])
 }
@@ -282,22 +309,31 @@ function insertEventsSql(shopId: number, events: RunEvent[]) {
  * and millisecond time as insertEventsSql, no flag yet), when the run holds exactly the rows
  * that one INSERT just stored: as many rows as events, all with that statement's received_at.
  * Otherwise (a duplicate id, another merge of the same run) undefined, and the caller reads.
+ * The fold's events are made here too, once, as toRunEvent would make them from those rows.
  */
-async function freshRows(db: DB, shopId: number, run: typeof tables.runs.$inferInsert, events: RunEvent[]): Promise<Map<string, KnownRun> | undefined> {
+async function freshRows(db: DB, shopId: number, run: typeof tables.runs.$inferInsert, events: RunEvent[], json: Map<string, string>): Promise<Map<string, KnownRun> | undefined> {
   const e = tables.runEvents
-  // How many rows the run holds, and when they arrived
-  const [held] = await db.select({ n: count(), oneTime: sql<number | null>`min(${e.receivedAt}) = max(${e.receivedAt})` })
-    .from(e).where(and(eq(e.shopId, shopId), eq(e.runId, run.id)))
+  // How many rows the run holds, and when they arrived (one statement: issue 14)
+  const [held] = await db.select({
+    n: count(), oneTime: sql<number | null>`min(${e.receivedAt}) = max(${e.receivedAt})`,
+    receivedAt: sql<Date | null>`min(${e.receivedAt})`.mapWith(e.receivedAt),
+  }).from(e).where(and(eq(e.shopId, shopId), eq(e.runId, run.id)))
   if (!held || Number(held.n) !== events.length || Number(held.oneTime) !== 1) return undefined
-  const [stored] = await db.select({ receivedAt: e.receivedAt }).from(e).where(eq(e.id, events[0]!.id)).limit(1)
-  const receivedAt = stored?.receivedAt
-  if (!receivedAt) return undefined
-  const rows = events.map(ev => ({
-    id: ev.id, runId: ev.runId, type: ev.type, actorId: ev.actorId, deviceId: ev.deviceId, at: new Date(ev.at),
-    payload: JSON.parse(JSON.stringify(payloadOf(ev))) as Record<string, unknown>, flag: null, receivedAt,
-  }))
-  return new Map([[run.id, { run: { id: run.id, machineId: run.machineId, procedureVersionId: run.procedureVersionId }, rows }]])
+  const receivedAt = held.receivedAt
+  if (!(receivedAt instanceof Date) || Number.isNaN(receivedAt.getTime())) return undefined
+  const rows: FoldRow[] = []
+  const folded: RunEvent[] = []
+  for (const ev of events) {
+    const payload = JSON.parse(json.get(ev.id)!) as Record<string, unknown>
+    const row: FoldRow = { id: ev.id, runId: ev.runId, type: ev.type, actorId: ev.actorId, deviceId: ev.deviceId, at: new Date(ev.at), payload, flag: null, receivedAt }
+    rows.push(row)
+    folded.push(toRunEvent(row))
+  }
+  return new Map([[run.id, { run: { id: run.id, machineId: run.machineId, procedureVersionId: run.procedureVersionId }, rows, events: folded }]])
 }
+
+/** What refoldRuns writes back to a run's row. */
+export type RunSummary = Pick<typeof tables.runs.$inferInsert, 'status' | 'currentStepKey' | 'finishedAt'>
 
 /** Why a run's new events could not be stored; the message goes back to the tablet. */
 class Unstorable extends Error {}
@@ -317,9 +353,11 @@ function unstorableReason(error: unknown) {
  * When the run cannot be stored as a whole, each event is tried alone, in order, so a good
  * event is never held back by a bad one beside it.
  */
-async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[]) {
+async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[], peopleIds?: ReadonlySet<number>) {
   const stored: string[] = []
   const rejected: SyncRejection[] = []
+  // Each event's stored JSON, written once for the INSERT and the fold both
+  const json = new Map(events.map(e => [e.id, JSON.stringify(payloadOf(e))]))
   const attempt = async (batch: RunEvent[]) => {
     const done: RunEvent[] = []
     await tx.transaction(async (sp) => {
@@ -329,16 +367,16 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
         at: new Date(e.at), payload: payloadOf(e),
       })
-      // The run's rows in one statement, in a savepoint of its own (a round trip per event was
-      // most of the merge's time, issue 14). Only when MariaDB refuses it are the events tried
-      // one by one below, so the one it refuses is named and the others are stored.
+      // The run's rows in one statement (a round trip per event was most of the merge's time,
+      // issue 14). Only when MariaDB refuses it are the events tried one by one below, so the
+      // one it refuses is named and the others are stored. No savepoint of its own: a statement
+      // MariaDB refuses is undone whole by InnoDB (its trigger's writes too), and the errors that
+      // undo the whole transaction instead (deadlock, lost connection) are thrown on below.
       let together = false
       if (batch.length > 1) {
         try {
-          await db.transaction(async (all) => {
-            // These events' rows; a duplicate id changes nothing
-            await (all as unknown as DB).execute(sql.raw(insertEventsSql(user.shopId, batch)))
-          })
+          // These events' rows; a duplicate id changes nothing
+          await db.execute(sql.raw(insertEventsSql(user.shopId, batch, json)))
           done.push(...batch)
           together = true
         }
@@ -364,8 +402,8 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       if (!done.length) return
       // A run this batch starts, stored in one statement, is folded from these events as stored
       // instead of being read back (issue 14), when freshRows finds it holds just those rows.
-      const known = newRun && together ? await freshRows(db, user.shopId, newRun, done) : undefined
-      await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known)
+      const known = newRun && together ? await freshRows(db, user.shopId, newRun, done, json) : undefined
+      await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known, peopleIds)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
     })
@@ -397,15 +435,13 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
  * or on a retired procedure, is refused, unless the tablet started it (its own clock) before
  * the newer version was published or the procedure retired: it was offline and could not know.
  */
-async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.started' }>, procedureId: number): Promise<string | null> {
+async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.started' }>, procedureId: number, procedureRetiredAt: Date | null): Promise<string | null> {
   const db = useDB()
   const startedAt = Date.parse(event.at)
-  // The procedure and the versions published after this one
-  const [procedure] = await db.select({ retiredAt: tables.procedures.retiredAt }).from(tables.procedures)
-    .where(eq(tables.procedures.id, procedureId)).limit(1)
-  if (procedure?.retiredAt && procedure.retiredAt.getTime() <= startedAt) {
+  if (procedureRetiredAt && procedureRetiredAt.getTime() <= startedAt) {
     return 'This procedure was retired before the run started; it can no longer be run.'
   }
+  // The versions published after this one
   const [newer] = await db.select({ version: tables.procedureVersions.version, createdAt: tables.procedureVersions.createdAt })
     .from(tables.procedureVersions)
     .where(and(eq(tables.procedureVersions.procedureId, procedureId), gt(tables.procedureVersions.id, event.procedureVersionId)))
@@ -419,21 +455,22 @@ async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.star
 /** Is this person allowed to start this run here? Returns the reason when not. */
 async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>): Promise<string | null> {
   const db = useDB()
-  // The machine, in this shop
-  const [machine] = await db.select({ retiredAt: tables.machines.retiredAt }).from(tables.machines)
-    .where(and(eq(tables.machines.id, event.machineId), eq(tables.machines.shopId, user.shopId))).limit(1)
-  if (!machine) return 'No such machine in this shop.'
-  if (machine.retiredAt) return 'That machine is retired.'
-  // The version, in this shop
-  const [version] = await db.select({ procedureId: tables.procedureVersions.procedureId }).from(tables.procedureVersions)
-    .where(and(eq(tables.procedureVersions.id, event.procedureVersionId), eq(tables.procedureVersions.shopId, user.shopId))).limit(1)
-  if (!version) return 'No such procedure version in this shop.'
-  const outdated = await outdatedVersionProblem(event, version.procedureId)
+  const m = tables.machines
+  const v = tables.procedureVersions
+  // The machine, in this shop, with the version (in this shop) and its procedure: one statement (issue 14)
+  const [found] = await db.select({ retiredAt: m.retiredAt, procedureId: v.procedureId, procedureRetiredAt: tables.procedures.retiredAt }).from(m)
+    .leftJoin(v, and(eq(v.id, event.procedureVersionId), eq(v.shopId, user.shopId)))
+    .leftJoin(tables.procedures, eq(tables.procedures.id, v.procedureId))
+    .where(and(eq(m.id, event.machineId), eq(m.shopId, user.shopId))).limit(1)
+  if (!found) return 'No such machine in this shop.'
+  if (found.retiredAt) return 'That machine is retired.'
+  if (found.procedureId === null) return 'No such procedure version in this shop.'
+  const outdated = await outdatedVersionProblem(event, found.procedureId, found.procedureRetiredAt)
   if (outdated) return outdated
   if (event.mode === 'solo') {
     // Is this person qualified to run this procedure unsupervised?
     const [q] = await db.select({ id: tables.qualifications.id }).from(tables.qualifications)
-      .where(and(eq(tables.qualifications.userId, user.id), eq(tables.qualifications.procedureId, version.procedureId))).limit(1)
+      .where(and(eq(tables.qualifications.userId, user.id), eq(tables.qualifications.procedureId, found.procedureId))).limit(1)
     if (runModeFor(user.role, !!q) !== 'solo') {
       return user.role === 'trainee'
         ? 'A trainee\'s run is always guided.'
@@ -457,7 +494,8 @@ function refuseUnstorableNumbers(value: unknown, depth = 0): void {
 
 /** Folds runs from their stored events and writes back the run summary and event flags. */
 // arrivedIds: the events this batch stored, so the Ledger can say which of them changed the record.
-export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = [], known?: Map<string, KnownRun>) {
+// peopleIds: the ids of this shop's people when the caller has just read them (ledger-write.ts).
+export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = [], known?: Map<string, KnownRun>, peopleIds?: ReadonlySet<number>) {
   if (!runIds.length) return
   const toRead = runIds.filter(id => !known?.has(id))
   const runRows = toRead.length
@@ -478,17 +516,21 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     ? await db.select({ ...storedColumns, receivedAt: tables.runEvents.receivedAt }).from(tables.runEvents)
       .where(and(eq(tables.runEvents.shopId, shopId), inArray(tables.runEvents.runId, toRead)))
     : []
-  for (const id of runIds) rows.push(...known?.get(id)?.rows ?? [])
   const byRun = new Map<string, FoldRow[]>()
   for (const row of rows) (byRun.get(row.runId) ?? byRun.set(row.runId, []).get(row.runId)!).push(row)
+  for (const id of runIds) {
+    const k = known?.get(id)
+    if (k) { rows.push(...k.rows); byRun.set(id, k.rows) }
+  }
 
   const folded: FoldedRun[] = []
+  const summaries = new Map<string, RunSummary>()
   for (const run of runs) {
     const steps = versions.get(run.procedureVersionId)?.steps ?? []
     const stored = byRun.get(run.id) ?? []
     // No roles passed: overrides and sign-offs were authorized when they were merged, and a
     // later role change must not turn yesterday's valid override into a flagged one.
-    const state = foldRun(steps, stored.map(toRunEvent))
+    const state = foldRun(steps, known?.get(run.id)?.events ?? stored.map(toRunEvent))
     refuseUnstorableNumbers(state)
     const procedureId = versions.get(run.procedureVersionId)?.procedureId
     if (procedureId !== undefined) folded.push({ run, procedureId, state, steps })
@@ -504,12 +546,16 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     }
     await recordFacing(db, shopId, run, state, steps)
     const current = state.steps[state.currentStepIndex]
-    await db.update(tables.runs).set({
+    const summary: RunSummary = {
       status: state.status === 'finished' || state.status === 'abandoned' || state.status === 'withdrawn' ? state.status : 'active',
       currentStepKey: current?.key ?? null,
       finishedAt: state.finished ? new Date(state.finished.at) : state.abandoned ? new Date(state.abandoned.at) : state.withdrawn ? new Date(state.withdrawn.at) : null,
-    }).where(eq(tables.runs.id, run.id))
+    }
+    // A run the Ledger writes (its procedure known) gets its summary in the Ledger's UPDATE of
+    // its spindle time: one statement per run (issue 14).
+    if (procedureId !== undefined) summaries.set(run.id, summary)
+    else await db.update(tables.runs).set(summary).where(eq(tables.runs.id, run.id))
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
-  await writeRunLedger(db, shopId, folded, arrivedIds, rows)
+  await writeRunLedger(db, shopId, folded, arrivedIds, rows, { summaries, peopleIds })
 }
