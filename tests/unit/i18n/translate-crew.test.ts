@@ -98,7 +98,7 @@ describe('Library and paper messages in Spanish', () => {
     expect(translateText('Started at is before Bench Router was added to Jogwise (2026-01-05).', EN, ES))
       .toBe('El inicio es anterior a cuando Bench Router se añadió a Jogwise (2026-01-05).')
     expect(translateText('step 3 "Spindle brake time" has no reading; enter it, or record the run as stopped.', EN, ES))
-      .toBe('el paso 3 «Spindle brake time» no tiene lectura; métela, o registra el trabajo como parado.')
+      .toBe('el paso 3 «Spindle brake time» no tiene lectura; anótala, o registra el trabajo como parado.')
     expect(translateText('12 s is outside 0 to 10 s; the reason is required.', EN, ES)).toBe('12 s está fuera de 0 to 10 s; el motivo es obligatorio.')
   })
 
