@@ -16,6 +16,7 @@ const SIGNALS: SignalWord[] = ['DANGER', 'WARNING', 'CAUTION', 'NOTICE']
 
 export function usePaperSheet() {
   const { t, te } = useI18n()
+  const rangeText = useRangeText()
   async function makeSheet(v: SheetVersion, paperSize: PaperSize, shopName?: string): Promise<Blob> {
     const [{ procedureSheetPdf, SHEET_WORDS }, { procedureUrl }, regular, bold] = await Promise.all([
       import('#shared/paper/procedure-sheet'),
@@ -29,7 +30,7 @@ export function usePaperSheet() {
       supplementNotice: t('editor.supplement'), steps: v.steps, paperSize, printedAt: new Date(),
       url: procedureUrl(window.location.origin, v.procedureId), shopName,
       words, signalWords: Object.fromEntries(SIGNALS.map(w => [w, t(`signal.${w}`)])),
-      categoryLabel: te(`categories.${v.category}`) ? t(`categories.${v.category}`) : v.category,
+      categoryLabel: te(`categories.${v.category}`) ? t(`categories.${v.category}`) : v.category, rangeText,
     }, { regular, bold })
     return new Blob([bytes as BlobPart], { type: 'application/pdf' })
   }

@@ -31,6 +31,8 @@ export interface SheetInput {
   /** The signal words and the category as the reader's language writes them. */
   signalWords?: Partial<Record<SignalWord, string>>
   categoryLabel?: string
+  /** A check's allowed range in the reader's language ("12 a 19,5 mm"); describeRange's English when left out. */
+  rangeText?: (check: { min?: number, max?: number, unit: string }) => string | null
 }
 
 /**
@@ -171,7 +173,7 @@ export async function procedureSheetPdf(input: SheetInput, fonts: SheetFonts): P
     text(step.body, { size: 10, x, w: width_, gap: 2 })
     if (step.kind === 'hold') drawHold(step, x, width_)
     else if (step.kind === 'check') {
-      const range = describeRange(step)
+      const range = input.rangeText ? input.rangeText(step) : describeRange(step)
       ensure(44)
       text(fill(w.reading, { label: step.label, unit: step.unit, range: range ?? w.anyValue }), { font: bold, size: 10.5, x, w: width_, gap: 2 })
       if (range) text(w.outsideReason, { size: 9.5, x, w: width_ })
