@@ -85,7 +85,7 @@ export function digestText(shopName: string, now: Date, c: Awaited<ReturnType<ty
     m('intro', { shop: shopName, day: localDay(now), from: when(c.since), to: when(now) }),
     section(m('skipped'), c.skipped.map(entry)),
     section(m('outOfRange'), c.outOfRange.map(entry)),
-    section(m('due'), c.due.map(d => `- ${messageIn(lang, d.status === 'overdue' ? 'due.overdue' : 'due.due')} · ${d.machineName} · ${d.procedureTitle} · ${d.reason}`)),
+    section(m('due'), c.due.map(d => `- ${messageIn(lang, d.status === 'overdue' ? 'due.overdue' : 'due.due')} · ${d.machineName} · ${d.procedureTitle} · ${textIn(lang, d.reason)}`)),
     m('ledger', { link: `${site}/ledger` }),
     messageIn(lang, 'safety.note'),
   ].join('\n\n')
