@@ -13,6 +13,7 @@ export function usePaperRunForm() {
     ticked: [] as string[], readings: {} as Record<string, { value: string, reason: string }>,
   })
   const photo = ref<File | null>(null)
+  const { t } = useI18n()
 
   function setSteps(steps: ProcedureStep[]) {
     form.ticked = []
@@ -40,8 +41,8 @@ export function usePaperRunForm() {
     try {
       await $fetch('/api/paper-runs', { method: 'POST', body: body(versionId) })
     }
-    catch (e: any) {
-      return { ok: false, issues: e?.data?.data?.issues ?? [{ path: '', message: e?.data?.message ?? 'Could not save the run.' }] }
+    catch (e) {
+      return { ok: false, issues: issuesOf(e, t('paper.run.saveFailed')) }
     }
     let photoProblem = ''
     if (photo.value) {
@@ -50,7 +51,7 @@ export function usePaperRunForm() {
         await $fetch(`/api/uploads/${uploadId}`, { method: 'PUT', query: { runId: form.runId }, body: photo.value, headers: { 'content-type': 'application/octet-stream' } })
         await $fetch(`/api/paper-runs/${form.runId}/sheet`, { method: 'PUT', body: { uploadId } })
       }
-      catch (e: any) { photoProblem = `The run is saved, but the photo of the sheet was not: ${e?.data?.message ?? 'network problem'}.` }
+      catch (e) { photoProblem = t('paper.run.photoNotSaved', { reason: reasonOf(e, t('paper.run.network')) }) }
     }
     return { ok: true, runId: form.runId, photoProblem }
   }

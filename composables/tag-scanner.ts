@@ -17,6 +17,7 @@ async function makeDetector(): Promise<Detector> {
 export function useTagScanner(video: Ref<HTMLVideoElement | null>, onCode: (text: string) => void) {
   const state = ref<'idle' | 'starting' | 'scanning' | 'no-camera'>('idle')
   const problem = ref('')
+  const { t } = useI18n()
   let stream: MediaStream | null = null
   let timer: ReturnType<typeof setTimeout> | undefined
   let stopped = false
@@ -31,8 +32,8 @@ export function useTagScanner(video: Ref<HTMLVideoElement | null>, onCode: (text
     catch (e: any) {
       state.value = 'no-camera'
       problem.value = e?.name === 'NotAllowedError'
-        ? 'The camera is blocked. Allow the camera for Jogwise in the browser settings.'
-        : 'No camera could be opened on this device.'
+        ? t('paper.scan.blocked')
+        : t('paper.scan.noCamera')
       return
     }
     if (stopped || !video.value) return stop()

@@ -104,39 +104,46 @@ export async function* ledgerAll(shopId: number, f: LedgerFilter, batch = 2000):
 
 // The CSV is for people first (readable kind names, local time beside UTC, the details in
 // columns of their own) and keeps the whole detail as JSON in the last column for programs.
+// Column headers, kind names, yes/no and the summaries are in the caller's language (the `csv`
+// section); the code columns (kind code, ids, JSON) stay as they are for programs.
 // Every text cell goes through safeCsvCell (formula injection); numbers stay numbers.
 type Cell = string | number | null | undefined
 const text = (v: unknown): string => (v === null || v === undefined ? '' : typeof v === 'object' ? JSON.stringify(v) : String(v))
 const num = (v: unknown): Cell => (typeof v === 'number' && Number.isFinite(v) ? v : text(v))
 
-export function ledgerCsvColumns(timeZone: string) {
+export function ledgerCsvColumns(timeZone: string, lang = 'en') {
   const localTime = localTimeFormatter(timeZone)
+  const h = (key: string, values: Record<string, string> = {}) => messageIn(lang, `csv.${key}`, values)
+  const kindName = (kind: string) => {
+    const name = messageIn(lang, `ledgerKinds.${kind}`)
+    return name === `ledgerKinds.${kind}` ? (LEDGER_KIND_LABELS[kind as keyof typeof LEDGER_KIND_LABELS] ?? kind) : name
+  }
   const cols: { header: string, value: (r: LedgerRow) => Cell }[] = [
-    { header: 'When (UTC)', value: r => r.at },
-    { header: `When (local, ${timeZone})`, value: r => localTime(r.at) },
-    { header: 'Received (UTC)', value: r => r.receivedAt },
-    { header: 'Kind', value: r => LEDGER_KIND_LABELS[r.kind] ?? r.kind },
-    { header: 'Counted', value: r => (r.counted ? 'yes' : 'no') },
-    { header: 'Not counted because', value: r => text(r.detail.notCounted) },
-    { header: 'Changed later', value: r => (r.changedAt ? `yes, see entry ${r.changedBy ?? ''}`.trim() : 'no') },
-    { header: 'Person', value: r => r.actorName },
-    { header: 'Machine', value: r => r.machineName },
-    { header: 'Procedure', value: r => r.procedureTitle },
-    { header: 'Step', value: r => r.stepTitle },
-    { header: 'What happened', value: r => r.summary },
-    { header: 'Reason', value: r => text(r.detail.reason) },
-    { header: 'Reading', value: r => num(r.detail.value) },
-    { header: 'Unit', value: r => text(r.detail.unit) },
-    { header: 'Allowed range', value: r => text(r.detail.range) },
-    { header: 'Signal word', value: r => text(r.detail.signalWord) },
+    { header: h('whenUtc'), value: r => r.at },
+    { header: h('whenLocal', { zone: timeZone }), value: r => localTime(r.at) },
+    { header: h('receivedUtc'), value: r => r.receivedAt },
+    { header: h('kind'), value: r => kindName(r.kind) },
+    { header: h('counted'), value: r => (r.counted ? h('yes') : h('no')) },
+    { header: h('notCountedBecause'), value: r => textIn(lang, text(r.detail.notCounted)) },
+    { header: h('changedLater'), value: r => (r.changedAt ? h('yesSee', { id: text(r.changedBy) }).trim() : h('no')) },
+    { header: h('person'), value: r => r.actorName },
+    { header: h('machine'), value: r => r.machineName },
+    { header: h('procedure'), value: r => r.procedureTitle },
+    { header: h('step'), value: r => r.stepTitle },
+    { header: h('what'), value: r => textIn(lang, r.summary) },
+    { header: h('reason'), value: r => text(r.detail.reason) },
+    { header: h('reading'), value: r => num(r.detail.value) },
+    { header: h('unit'), value: r => text(r.detail.unit) },
+    { header: h('range'), value: r => text(r.detail.range) },
+    { header: h('signalWord'), value: r => text(r.detail.signalWord) },
     // The language of the text on screen at an acknowledgement or sign-off (issue 16).
-    { header: 'Language on screen', value: r => text(r.detail.lang) },
-    { header: 'Entry', value: r => r.id },
-    { header: 'Revision', value: r => r.revision },
-    { header: 'Run', value: r => r.runId },
-    { header: 'Event', value: r => r.eventId },
-    { header: 'Kind (code)', value: r => r.kind },
-    { header: 'Detail (JSON)', value: r => JSON.stringify(r.detail) },
+    { header: h('language'), value: r => text(r.detail.lang) },
+    { header: h('entry'), value: r => r.id },
+    { header: h('revision'), value: r => r.revision },
+    { header: h('run'), value: r => r.runId },
+    { header: h('event'), value: r => r.eventId },
+    { header: h('kindCode'), value: r => r.kind },
+    { header: h('detail'), value: r => JSON.stringify(r.detail) },
   ]
   return cols
 }

@@ -14,14 +14,20 @@ const when = (d: Date) => `${localDay(d)} ${String(d.getHours()).padStart(2, '0'
 
 interface DigestLine { at: Date, kind: string, runId: string, machine: string, procedure: string, step: string, person: string, detail: Record<string, unknown> }
 
-function describe(detail: Record<string, unknown>): string {
+type Say = (key: string, values?: Record<string, string | number>) => string
+
+function describe(detail: Record<string, unknown>, m: Say, lang: string, tag: string): string {
   const parts: string[] = []
   const value = detail.value ?? detail.reading
-  if (value !== undefined && value !== null) parts.push(`reading ${value}${detail.unit ? ` ${detail.unit}` : ''}`)
+  const unit = detail.unit ? ` ${detail.unit}` : ''
+  const shown = typeof value === 'number' ? new Intl.NumberFormat(tag, { maximumFractionDigits: 6, useGrouping: false }).format(value) : value
+  if (value !== undefined && value !== null) parts.push(m('reading', { value: `${shown}${unit}` }))
   // The Ledger writes the allowed range as text (describeRange); min/max are read too.
-  if (typeof detail.range === 'string' && detail.range) parts.push(`allowed ${detail.range}`)
-  else if (detail.min !== undefined || detail.max !== undefined) parts.push(`allowed ${detail.min ?? '…'} to ${detail.max ?? '…'}${detail.unit ? ` ${detail.unit}` : ''}`)
-  if (typeof detail.reason === 'string' && detail.reason) parts.push(`reason: "${detail.reason}"`)
+  if (typeof detail.range === 'string' && detail.range) parts.push(m('allowed', { range: detail.range }))
+  else if (detail.min !== undefined || detail.max !== undefined) {
+    parts.push(m('allowed', { range: messageIn(lang, 'range.between', { min: String(detail.min ?? '…'), max: String(detail.max ?? '…'), unit: String(detail.unit ?? '') }).trim() }))
+  }
+  if (typeof detail.reason === 'string' && detail.reason) parts.push(m('reason', { reason: detail.reason }))
   return parts.join(', ')
 }
 
@@ -65,20 +71,23 @@ export async function digestContent(shopId: number, now: Date) {
   }
 }
 
-export function digestText(shopName: string, now: Date, c: Awaited<ReturnType<typeof digestContent>>): string {
+/** The digest's text in `lang` (each owner reads it in their own language, the `mail.digest` section). */
+export function digestText(shopName: string, now: Date, c: Awaited<ReturnType<typeof digestContent>>, lang = 'en'): string {
   const site = siteUrl()
+  const m: Say = (key, values = {}) => messageIn(lang, `mail.digest.${key}`, values)
+  const tag = messageIn(lang, 'meta.tag')
   const entry = (l: DigestLine) => {
-    const extra = describe(l.detail)
+    const extra = describe(l.detail, m, lang, tag)
     return `- ${when(l.at)} · ${l.machine} · ${l.procedure} · "${l.step}" · ${l.person}${extra ? ` · ${extra}` : ''}\n  ${site}/runs/${l.runId}/record`
   }
-  const section = (title: string, items: string[]) => `${title} (${items.length})\n${items.length ? items.join('\n') : '- none'}`
+  const section = (title: string, items: string[]) => `${title} (${items.length})\n${items.length ? items.join('\n') : `- ${m('none')}`}`
   return [
-    `Daily digest for ${shopName}, ${localDay(now)}: the 24 hours from ${when(c.since)} to ${when(now)}.`,
-    section('Skipped checks', c.skipped.map(entry)),
-    section('Out-of-range readings', c.outOfRange.map(entry)),
-    section('Maintenance due and overdue', c.due.map(d => `- ${d.status === 'overdue' ? 'OVERDUE' : 'DUE'} · ${d.machineName} · ${d.procedureTitle} · ${d.reason}`)),
-    `The whole record is in the Ledger: ${site}/ledger`,
-    'Jogwise supplements, and never replaces, the machine maker\'s manual, local codes and competent practice.',
+    m('intro', { shop: shopName, day: localDay(now), from: when(c.since), to: when(now) }),
+    section(m('skipped'), c.skipped.map(entry)),
+    section(m('outOfRange'), c.outOfRange.map(entry)),
+    section(m('due'), c.due.map(d => `- ${messageIn(lang, d.status === 'overdue' ? 'due.overdue' : 'due.due')} · ${d.machineName} · ${d.procedureTitle} · ${textIn(lang, d.reason)}`)),
+    m('ledger', { link: `${site}/ledger` }),
+    messageIn(lang, 'safety.note'),
   ].join('\n\n')
 }
 
@@ -92,10 +101,13 @@ export async function enqueueShopDigest(shopId: number, now = new Date()): Promi
   const owners = await activeOwners(db, shopId)
   if (!owners.length) return { day, queued: 0, owners: 0 }
   const content = await digestContent(shopId, now)
-  const text = digestText(shop.name, now, content)
-  const subject = `Jogwise daily digest ${day}: ${content.skipped.length} skipped, ${content.outOfRange.length} out of range, ${content.due.length} due`
   let queued = 0
   for (const owner of owners) {
+    // Each owner reads the digest in their own language (server/utils/language.ts).
+    const lang = owner.language ?? 'en'
+    const text = digestText(shop.name, now, content, lang)
+    const counts = { day, skipped: content.skipped.length, outOfRange: content.outOfRange.length, due: content.due.length }
+    const subject = messageIn(lang, 'mail.digest.subject', counts)
     const added = await enqueueMail(db, { shopId, kind: 'digest', dedupeKey: `digest:${shopId}:${day}:${owner.id}`, to: owner.email, subject, text })
     if (added) queued++
   }

@@ -1,6 +1,6 @@
 import { PDFDocument, rgb, type PDFFont, type PDFPage, type RGB } from 'pdf-lib'
 import fontkit from '@pdf-lib/fontkit'
-import { describeRange, PROCEDURE_CATEGORY_LABELS, SIGNAL_WORD_INFO, type ProcedureCategory, type ProcedureStep } from '../procedures/schema'
+import { describeRange, PROCEDURE_CATEGORY_LABELS, SIGNAL_WORD_INFO, type ProcedureCategory, type ProcedureStep, type SignalWord } from '../procedures/schema'
 import { PAPER_POINTS, type PaperSize } from './sizes'
 import { qrMatrix, QR_QUIET_ZONE } from './qr-matrix'
 import { printable, wrap } from './sheet-text'
@@ -26,7 +26,43 @@ export interface SheetInput {
   /** Opens this procedure in Jogwise; printed as the QR code. */
   url: string
   shopName?: string
+  /** The sheet's own words in the reader's language (the `paper.sheet` section); English when left out. */
+  words?: SheetWords
+  /** The signal words and the category as the reader's language writes them. */
+  signalWords?: Partial<Record<SignalWord, string>>
+  categoryLabel?: string
+  /** A check's allowed range in the reader's language ("12 a 19,5 mm"); describeRange's English when left out. */
+  rangeText?: (check: { min?: number, max?: number, unit: string }) => string | null
 }
+
+/**
+ * The words the sheet prints around the procedure's own text, with {name} placeholders. The
+ * locale files hold the same keys under `paper.sheet`, so a sheet prints in its reader's language.
+ */
+export const SHEET_WORDS = {
+  continued: '{title} — version {version} (continued)',
+  scanToOpen: 'Scan to open in Jogwise',
+  version: 'Version {version}',
+  machineLine: 'Machine kind: gantry CNC router. Machine: ______________________',
+  doneByLine: 'Done by: __________________   Date: ____________   Started: ______   Finished: ______',
+  signoff: 'Sign-off',
+  signoffNames: 'Done by (name): ____________________   Signed by trainer or owner (name): ____________________',
+  signoffSignature: 'Signature: ____________________   Date and time: ____________________',
+  printedOn: 'Printed on {date} — check for a newer version',
+  pageOf: 'Page {n} of {total}',
+  reading: '{label}: ____________ {unit}    Allowed: {range}',
+  anyValue: 'any value',
+  outsideReason: 'Outside the allowed range? Reason: ______________________________________________',
+  photo: 'Photo: {subject} (take it, or note here why not)',
+  planner: 'Surfacing plan: cutter ______  stepover ______  depth ______  feed ______',
+  signed: 'Signed: ____________________   Name: ____________________',
+  whatToDo: 'What to do: {avoid}',
+  trainerSigns: 'Trainer or owner signs before going on: ____________________',
+} as const
+export type SheetWords = Record<keyof typeof SHEET_WORDS, string>
+
+const fill = (template: string, values: Record<string, string | number>) =>
+  template.replace(/\{(\w+)\}/g, (whole, name: string) => (name in values ? String(values[name]) : whole))
 
 const MARGIN = 40
 const INK = rgb(0.1, 0.1, 0.1)
@@ -38,11 +74,13 @@ function hex(colour: string): RGB {
 }
 
 /** "printed on 2026-12-03 — check for a newer version" (date in UTC, as ISO 8601 writes it). */
-export function printedLine(at: Date) {
-  return `Printed on ${at.toISOString().slice(0, 10)} — check for a newer version`
+export function printedLine(at: Date, words: SheetWords = SHEET_WORDS) {
+  return fill(words.printedOn, { date: at.toISOString().slice(0, 10) })
 }
 
 export async function procedureSheetPdf(input: SheetInput, fonts: SheetFonts): Promise<Uint8Array> {
+  const w = input.words ?? SHEET_WORDS
+  const word = (signal: SignalWord) => input.signalWords?.[signal] ?? SIGNAL_WORD_INFO[signal].word
   const doc = await PDFDocument.create()
   doc.registerFontkit(fontkit)
   const regular = await doc.embedFont(await woffToSfnt(new Uint8Array(fonts.regular)), { subset: false })
@@ -61,7 +99,7 @@ export async function procedureSheetPdf(input: SheetInput, fonts: SheetFonts): P
     pages.push(page)
     y = height - MARGIN
     if (pages.length > 1) {
-      text(`${input.title} — version ${input.version} (continued)`, { font: bold, size: 10, color: GREY })
+      text(fill(w.continued, { title: input.title, version: input.version }), { font: bold, size: 10, color: GREY })
       y -= 6
     }
   }
@@ -84,12 +122,13 @@ export async function procedureSheetPdf(input: SheetInput, fonts: SheetFonts): P
   // Heading: title, version, kind of work, the QR code in the corner.
   const qrSide = 84
   drawQr(page, input.url, width - MARGIN - qrSide, height - MARGIN - qrSide, qrSide)
-  page.drawText(printable(regular, 'Scan to open in Jogwise'), { x: width - MARGIN - qrSide, y: height - MARGIN - qrSide - 10, size: 7, font: regular, color: GREY })
+  page.drawText(printable(regular, w.scanToOpen), { x: width - MARGIN - qrSide, y: height - MARGIN - qrSide - 10, size: 7, font: regular, color: GREY })
   const headW = inner - qrSide - 12
   text(input.title, { font: bold, size: 18, w: headW, gap: 2 })
-  text(`Version ${input.version} · ${PROCEDURE_CATEGORY_LABELS[input.category]}${input.shopName ? ` · ${input.shopName}` : ''}`, { size: 11, w: headW })
-  text('Machine kind: gantry CNC router. Machine: ______________________', { size: 11, w: headW })
-  text('Done by: __________________   Date: ____________   Started: ______   Finished: ______', { size: 10, w: headW, gap: 4 })
+  const category = input.categoryLabel ?? PROCEDURE_CATEGORY_LABELS[input.category]
+  text(`${fill(w.version, { version: input.version })} · ${category}${input.shopName ? ` · ${input.shopName}` : ''}`, { size: 11, w: headW })
+  text(w.machineLine, { size: 11, w: headW })
+  text(w.doneByLine, { size: 10, w: headW, gap: 4 })
   if (input.summary) text(input.summary, { size: 10, color: GREY, w: headW })
   y = Math.min(y, height - MARGIN - qrSide - 18)
   // The supplement notice, boxed, before the first step (brief: Safety).
@@ -109,73 +148,74 @@ export async function procedureSheetPdf(input: SheetInput, fonts: SheetFonts): P
   ensure(78)
   y -= 4
   page.drawRectangle({ x: MARGIN, y: y - 72, width: inner, height: 72, borderColor: INK, borderWidth: 1.2 })
-  page.drawText('Sign-off', { x: MARGIN + 8, y: y - 16, size: 12, font: bold, color: INK })
-  page.drawText(printable(regular, 'Done by (name): ____________________   Signed by trainer or owner (name): ____________________'), { x: MARGIN + 8, y: y - 38, size: 9.5, font: regular, color: INK })
-  page.drawText(printable(regular, 'Signature: ____________________   Date and time: ____________________'), { x: MARGIN + 8, y: y - 60, size: 9.5, font: regular, color: INK })
+  page.drawText(printable(bold, w.signoff), { x: MARGIN + 8, y: y - 16, size: 12, font: bold, color: INK })
+  page.drawText(printable(regular, w.signoffNames), { x: MARGIN + 8, y: y - 38, size: 9.5, font: regular, color: INK })
+  page.drawText(printable(regular, w.signoffSignature), { x: MARGIN + 8, y: y - 60, size: 9.5, font: regular, color: INK })
   y -= 80
 
   // Footer on every page: printed date and the page count.
-  const footer = printedLine(input.printedAt)
+  const footer = printedLine(input.printedAt, w)
   pages.forEach((p, n) => {
     p.drawText(printable(regular, footer), { x: MARGIN, y: MARGIN - 4, size: 8.5, font: regular, color: GREY })
-    const count = `Page ${n + 1} of ${pages.length}`
+    const count = printable(regular, fill(w.pageOf, { n: n + 1, total: pages.length }))
     p.drawText(count, { x: width - MARGIN - regular.widthOfTextAtSize(count, 8.5), y: MARGIN - 4, size: 8.5, font: regular, color: GREY })
   })
   return doc.save()
 
   function drawStep(step: ProcedureStep, i: number) {
     const x = MARGIN + 22
-    const w = inner - 22
-    const bodyH = height_(regular, 10, step.body, w)
+    const width_ = inner - 22
+    const bodyH = height_(regular, 10, step.body, width_)
     ensure(Math.min(14 * 1.3 + bodyH, 120))
     // The tick box, then the step's number and title.
     page.drawRectangle({ x: MARGIN, y: y - 14, width: 13, height: 13, borderColor: INK, borderWidth: 1.2 })
-    text(`${i + 1}. ${step.title}`, { font: bold, size: 12, x, w })
-    text(step.body, { size: 10, x, w, gap: 2 })
-    if (step.kind === 'hold') drawHold(step, x, w)
+    text(`${i + 1}. ${step.title}`, { font: bold, size: 12, x, w: width_ })
+    text(step.body, { size: 10, x, w: width_, gap: 2 })
+    if (step.kind === 'hold') drawHold(step, x, width_)
     else if (step.kind === 'check') {
-      const range = describeRange(step)
+      const range = input.rangeText ? input.rangeText(step) : describeRange(step)
       ensure(44)
-      text(`${step.label}: ____________ ${step.unit}    Allowed: ${range ?? 'any value'}`, { font: bold, size: 10.5, x, w, gap: 2 })
-      if (range) text('Outside the allowed range? Reason: ______________________________________________', { size: 9.5, x, w })
+      text(fill(w.reading, { label: step.label, unit: step.unit, range: range ?? w.anyValue }), { font: bold, size: 10.5, x, w: width_, gap: 2 })
+      if (range) text(w.outsideReason, { size: 9.5, x, w: width_ })
     }
-    else if (step.kind === 'photo') text(`Photo: ${step.subject} (take it, or note here why not)`, { size: 9.5, x, w, color: GREY })
-    else if (step.kind === 'planner') text('Surfacing plan: cutter ______  stepover ______  depth ______  feed ______', { size: 9.5, x, w })
+    else if (step.kind === 'photo') text(fill(w.photo, { subject: step.subject }), { size: 9.5, x, w: width_, color: GREY })
+    else if (step.kind === 'planner') text(w.planner, { size: 9.5, x, w: width_ })
     else if (step.kind === 'signoff') {
-      text(step.statement, { font: bold, size: 10, x, w, gap: 2 })
-      text('Signed: ____________________   Name: ____________________', { size: 9.5, x, w })
+      text(step.statement, { font: bold, size: 10, x, w: width_, gap: 2 })
+      text(w.signed, { size: 9.5, x, w: width_ })
     }
-    if (step.guidance) text(step.guidance, { size: 9, x, w, color: GREY })
+    if (step.guidance) text(step.guidance, { size: 9, x, w: width_, color: GREY })
   }
 
-  function drawHold(step: Extract<ProcedureStep, { kind: 'hold' }>, x: number, w: number) {
+  function drawHold(step: Extract<ProcedureStep, { kind: 'hold' }>, x: number, bw: number) {
     const info = SIGNAL_WORD_INFO[step.signalWord]
     const pad = 6
-    const hazardH = height_(bold, 10, step.hazard, w - 2 * pad)
-    const avoidH = height_(regular, 10, `What to do: ${step.avoid}`, w - 2 * pad)
+    const hazardH = height_(bold, 10, step.hazard, bw - 2 * pad)
+    const avoidH = height_(regular, 10, fill(w.whatToDo, { avoid: step.avoid }), bw - 2 * pad)
     const signH = step.needsTrainerSignoff ? 14 : 0
     const band = 22
     const boxH = band + hazardH + avoidH + signH + 2 * pad
     ensure(boxH + 4)
     const top = y
     // Border in the word's colour, then the coloured band with the alert triangle and word.
-    page.drawRectangle({ x, y: top - boxH, width: w, height: boxH, borderColor: hex(info.background), borderWidth: 3 })
-    page.drawRectangle({ x, y: top - band, width: w, height: band, color: hex(info.background) })
+    page.drawRectangle({ x, y: top - boxH, width: bw, height: boxH, borderColor: hex(info.background), borderWidth: 3 })
+    page.drawRectangle({ x, y: top - band, width: bw, height: band, color: hex(info.background) })
     const wordSize = 14
-    const wordW = bold.widthOfTextAtSize(info.word, wordSize)
+    const shown = printable(bold, word(step.signalWord))
+    const wordW = bold.widthOfTextAtSize(shown, wordSize)
     const tri = info.alertSymbol ? 18 : 0
-    const startX = x + (w - wordW - tri - (tri ? 6 : 0)) / 2
+    const startX = x + (bw - wordW - tri - (tri ? 6 : 0)) / 2
     if (info.alertSymbol) {
       // The safety-alert symbol as on screen: the triangle in the text colour, the mark in the band's.
       page.drawSvgPath('M9 0 L18 16 L0 16 Z', { x: startX, y: top - 3, color: hex(info.text) })
       page.drawRectangle({ x: startX + 8, y: top - 3 - 11, width: 2, height: 6.5, color: hex(info.background) })
       page.drawCircle({ x: startX + 9, y: top - 3 - 13.5, size: 1.1, color: hex(info.background) })
     }
-    page.drawText(info.word, { x: startX + tri + (tri ? 6 : 0), y: top - band + 6, size: wordSize, font: bold, color: hex(info.text) })
+    page.drawText(shown, { x: startX + tri + (tri ? 6 : 0), y: top - band + 6, size: wordSize, font: bold, color: hex(info.text) })
     y = top - band - pad
-    text(step.hazard, { font: bold, size: 10, x: x + pad, w: w - 2 * pad })
-    text(`What to do: ${step.avoid}`, { size: 10, x: x + pad, w: w - 2 * pad })
-    if (step.needsTrainerSignoff) text('Trainer or owner signs before going on: ____________________', { size: 9.5, x: x + pad, w: w - 2 * pad })
+    text(step.hazard, { font: bold, size: 10, x: x + pad, w: bw - 2 * pad })
+    text(fill(w.whatToDo, { avoid: step.avoid }), { size: 10, x: x + pad, w: bw - 2 * pad })
+    if (step.needsTrainerSignoff) text(w.trainerSigns, { size: 9.5, x: x + pad, w: bw - 2 * pad })
     y = top - boxH - 4
   }
 

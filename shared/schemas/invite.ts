@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { ROLES } from '../types/roles'
+import { LanguageCodeSchema } from './language'
 
 const email = z.string({ error: 'Enter an e-mail address.' }).trim().toLowerCase()
   .max(254, 'That e-mail address is too long.')
@@ -13,7 +14,8 @@ const password = z.string({ error: 'Choose a password.' })
   .min(10, 'Use at least 10 characters for the password.')
   .max(200, 'Keep the password under 200 characters.')
 
-export const InviteCreateSchema = z.object({ email, role }).strict()
+/** `language`: the language of the invite e-mail (the owner's screen language when left out). */
+export const InviteCreateSchema = z.object({ email, role, language: LanguageCodeSchema.optional() }).strict()
 export type InviteCreateInput = z.infer<typeof InviteCreateSchema>
 
 export const InviteTokenSchema = z.object({ token })

@@ -31,7 +31,7 @@ test('the owner invites a trainer who joins from the e-mailed link', async ({ pa
   await form.getByRole('button', { name: 'Send invite' }).click()
   await expect(form.getByText('Enter a valid e-mail address.')).toBeVisible()
   await form.getByLabel('E-mail to invite').fill(email)
-  await form.getByLabel('Role').selectOption('trainer')
+  await form.getByText('Trainer', { exact: true }).click()
   await form.getByRole('button', { name: 'Send invite' }).click()
   await expect(page.getByRole('status')).toContainText(`Invite sent to ${email}`)
   await expect(page.getByTestId(`invite-${email}`).getByTestId('invite-status')).toHaveText('Waiting')

@@ -1,10 +1,14 @@
 import { InviteCreateSchema } from '#shared/schemas/invite'
-import { ROLE_LABELS } from '#shared/types/roles'
 
-// The owner invites someone by e-mail: the invite row and its mail are written together.
+// The owner invites someone by e-mail: the invite row and its mail are written together. The
+// mail is in the language the owner chose for it, else the owner's own. (Never the language of
+// an account elsewhere: the outbox shows the owner the subject, and it must not tell them.)
 export default defineEventHandler(async (event) => {
   const owner = await requireRole(event, 'owner')
   const body = await readValid(event, InviteCreateSchema)
+  if (body.language !== undefined && !isLanguage(body.language)) {
+    throw invalidInput('language', `Jogwise has no ${body.language} screens; choose one of ${LANGUAGES.join(', ')}.`)
+  }
   const db = useDB()
   const taken409 = (message: string) => conflict(`email: ${message}`, [{ path: 'email', message }])
 
@@ -14,6 +18,8 @@ export default defineEventHandler(async (event) => {
   // Another shop's address gets the same answer as a new one (an owner must not learn who uses
   // Jogwise elsewhere); its mail tells the address's owner instead, without a link.
   const elsewhere = !!taken
+  const lang = body.language ?? callerLanguage(event)
+  const m = (key: string, values: Record<string, string | number> = {}) => messageIn(lang, `mail.invite.${key}`, values)
   // A pending invite of this shop for the same address
   const [pending] = await db.select({ id: tables.invites.id }).from(tables.invites).where(and(
     eq(tables.invites.shopId, owner.shopId), eq(tables.invites.email, body.email),
@@ -29,15 +35,12 @@ export default defineEventHandler(async (event) => {
     const [{ id }] = await tx.insert(tables.invites).values({
       shopId: owner.shopId, email: body.email, role: body.role, tokenHash: hash, invitedBy: owner.id, expiresAt,
     }).$returningId() as [{ id: number }]
-    const subject = `${owner.name} invites you to ${shop?.name ?? 'a shop'} on Jogwise`
+    const shopName = shop?.name ?? m('aShop')
+    const subject = m('subject', { name: owner.name, shop: shopName })
     if (elsewhere) {
       await enqueueMail(tx, {
         shopId: owner.shopId, kind: 'invite', dedupeKey: `invite:${id}`, to: body.email, subject,
-        text: [
-          `${owner.name} tried to invite you to ${shop?.name ?? 'their shop'} on Jogwise.`,
-          'This address already signs in to Jogwise, and one address belongs to one shop, so there is no link to open.',
-          'To join them, give them another e-mail address. If you did not expect this, ignore this e-mail.',
-        ].join('\n\n'),
+        text: [m('triedIntro', { name: owner.name, shop: shopName }), m('taken'), m('takenWhat')].join('\n\n'),
       })
       await recordAudit(tx, owner, 'invite.sent', 'invite', id, { email: body.email, role: body.role })
       return id
@@ -45,11 +48,11 @@ export default defineEventHandler(async (event) => {
     await enqueueMail(tx, {
       shopId: owner.shopId, kind: 'invite', dedupeKey: `invite:${id}`, to: body.email, subject,
       text: [
-        `${owner.name} invites you to join ${shop?.name ?? 'their shop'} on Jogwise as ${ROLE_LABELS[body.role].toLowerCase()}.`,
+        m('intro', { name: owner.name, shop: shopName, role: messageIn(lang, `mail.role.${body.role}`) }),
         // The link itself is sealed beside the row and put in only as the mail is sent.
-        `Open this link to choose your name and password:\n${INVITE_LINK_PLACEHOLDER}`,
-        `The link works once and until ${expiresAt.toISOString().replace('T', ' ').slice(0, 16)} UTC.`,
-        'If you did not expect this, ignore this e-mail.',
+        `${m('openLink')}\n${INVITE_LINK_PLACEHOLDER}`,
+        m('until', { when: expiresAt.toISOString().replace('T', ' ').slice(0, 16) }),
+        m('ignore'),
       ].join('\n\n'),
       linkSecret: sealInviteToken(token),
     })

@@ -8,8 +8,9 @@ import { LEAD_ROLES } from '#shared/types/roles'
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...LEAD_ROLES)
   const { tz, ...filter } = queryValid(event, LedgerExportSchema)
-  // The local-time column uses the browser's zone (the screen sends it), else the server's.
-  const columns = ledgerCsvColumns(tz ?? Intl.DateTimeFormat().resolvedOptions().timeZone)
+  // The local-time column uses the browser's zone (the screen sends it), else the server's; the
+  // headers and readable cells are in the caller's language.
+  const columns = ledgerCsvColumns(tz ?? Intl.DateTimeFormat().resolvedOptions().timeZone, callerLanguage(event))
   const day = new Date().toISOString().slice(0, 10)
   setResponseHeaders(event, {
     'content-type': 'text/csv; charset=utf-8',
