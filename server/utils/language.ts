@@ -37,9 +37,21 @@ export function issuesIn(lang: string, issues: FieldIssue[]) {
 }
 
 /** A message by key (`mail.override.subject`) in `lang`, English when that language lacks it. */
-export function messageIn(lang: string, key: string, values: Record<string, string | number> = {}): string {
+export function messageIn(lang: string, key: string, values: Record<string, string | number> = {}, count?: number): string {
   const find = (tree: unknown) => key.split('.').reduce<unknown>((node, part) => (node && typeof node === 'object') ? (node as Record<string, unknown>)[part] : undefined, tree)
-  const template = find(locales[lang]) ?? find(locales.en)
-  if (typeof template !== 'string') return key
+  const found = find(locales[lang]) ?? find(locales.en)
+  if (typeof found !== 'string') return key
+  const template = count === undefined ? found : pluralForm(found, count)
   return template.replace(/\{(\w+)\}/g, (whole, name: string) => name in values ? String(values[name]) : whole)
+}
+
+/**
+ * The form of "one | many" (or "none | one | many") for `count`, chosen as vue-i18n's default
+ * rule does, so a message reads the same on the screen and in mail.
+ */
+export function pluralForm(message: string, count: number): string {
+  const forms = message.split(' | ')
+  const n = Math.abs(count)
+  const index = forms.length === 2 ? (n === 1 ? 0 : 1) : forms.length > 2 ? Math.min(n, 2) : 0
+  return forms[index] ?? forms[0]!
 }

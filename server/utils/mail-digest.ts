@@ -1,4 +1,5 @@
 import type { DueItem } from './due-list'
+import { dueReasonText } from '#shared/rules/due-reason'
 
 // The owner's daily digest: the last 24 hours' skipped checks and out-of-range readings from
 // the Ledger, and what maintenance is due or overdue. One mail per active owner, shop and day;
@@ -85,7 +86,7 @@ export function digestText(shopName: string, now: Date, c: Awaited<ReturnType<ty
     m('intro', { shop: shopName, day: localDay(now), from: when(c.since), to: when(now) }),
     section(m('skipped'), c.skipped.map(entry)),
     section(m('outOfRange'), c.outOfRange.map(entry)),
-    section(m('due'), c.due.map(d => `- ${messageIn(lang, d.status === 'overdue' ? 'due.overdue' : 'due.due')} · ${d.machineName} · ${d.procedureTitle} · ${textIn(lang, d.reason)}`)),
+    section(m('due'), c.due.map(d => `- ${messageIn(lang, d.status === 'overdue' ? 'due.overdue' : 'due.due')} · ${d.machineName} · ${d.procedureTitle} · ${dueReasonText(d, (key, values, count) => messageIn(lang, `dueList.reason.${key}`, values, count), (n, fraction) => new Intl.NumberFormat(tag, { maximumFractionDigits: fraction ?? 6 }).format(n))}`)),
     m('ledger', { link: `${site}/ledger` }),
     messageIn(lang, 'safety.note'),
   ].join('\n\n')

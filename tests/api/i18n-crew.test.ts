@@ -126,6 +126,10 @@ describe('the daily digest in each owner\'s language', () => {
       expect(mail.text).toContain('Lecturas fuera de rango (')
       expect(mail.text).toContain('Mantenimiento pendiente y atrasado (')
       expect(mail.text).not.toMatch(/\b(Skipped checks|Out-of-range readings|Daily digest)\b/)
+      // Why each interval is due, in Spanish too (shared/rules/due-reason.ts)
+      expect(mail.text).not.toMatch(/Never done|[Ll]ast done|[Nn]ot done yet|spindle hours used/)
+      const due = Number(/Mantenimiento pendiente y atrasado \((\d+)\)/.exec(mail.text)?.[1])
+      if (due > 0) expect(mail.text).toMatch(/Sin hacer nunca|[Hh]echo por última vez|[Ss]in hacer aún|horas de husillo usadas/)
       // The shop's other owners, who never chose a language, read the same day's digest in English.
       const [others] = await db().query<any[]>('select id from users where shop_id = (select shop_id from users where id = ?) and role = \'owner\' and active = 1 and language is null and id <> ?', [made.body.id, made.body.id])
       expect(others.length).toBeGreaterThan(0)
