@@ -35,9 +35,3 @@ export function readScannedCode(text: string, here: { origin: string, shopId: nu
   if (procedure && url.origin === here.origin) return { kind: 'procedure', procedureId: Number(procedure[1]) }
   return { kind: 'not-jogwise' }
 }
-
-/** What the Scan screen says for a code it will not open. */
-export const SCAN_MESSAGES = {
-  'other-shop': 'This is a Jogwise tag of another shop. It does not open anything here; ask the owner for this shop\'s tag.',
-  'not-jogwise': 'This code is not a Jogwise machine tag. Point the camera at the tag on the machine.',
-} as const

@@ -2,17 +2,6 @@ import { z } from 'zod'
 import { DWELL_UNITS, SPINDLE_KINDS, UNITS } from '../rules/enums'
 
 export { DWELL_UNITS, SPINDLE_KINDS }
-export const DWELL_UNIT_LABELS: Record<typeof DWELL_UNITS[number], string> = {
-  seconds: 'G4 P in seconds (RS274/NGC)',
-  milliseconds: 'G4 P in milliseconds',
-}
-
-export const SPINDLE_LABELS: Record<typeof SPINDLE_KINDS[number], string> = {
-  'trim-router': 'Trim router',
-  'air-spindle': 'Air-cooled spindle',
-  'water-spindle': 'Water-cooled spindle with chiller',
-}
-
 const mm = (label: string, max: number, min = 1) => z.number({ error: `${label} must be a number.` })
   .finite(`${label} must be a number.`)
   .positive(`${label} must be more than 0.`)

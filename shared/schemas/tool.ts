@@ -6,17 +6,6 @@ import { MAX_RPM, MIN_RPM } from '../machining/surfacing-input'
 import { TOOL_KINDS, type ToolKind } from '../rules/enums'
 
 export { TOOL_KINDS, type ToolKind }
-export const TOOL_KIND_LABELS: Record<ToolKind, string> = {
-  'surfacing': 'Surfacing cutter',
-  'straight': 'Straight bit',
-  'spiral-up': 'Up-cut spiral',
-  'spiral-down': 'Down-cut spiral',
-  'compression': 'Compression bit',
-  'ball-nose': 'Ball nose',
-  'v-bit': 'V-bit',
-  'other': 'Other',
-}
-
 /** Limits in mm; common practice, no published source: router cutters run 0.5 to 150 mm across. */
 export const TOOL_LIMITS_MM = { minDiameter: 0.5, maxDiameter: 150 } as const
 
