@@ -1,4 +1,5 @@
-import type { MessageCompiler, MessageContext, MessageFunction } from 'vue-i18n'
+import { compile } from '@intlify/core-base'
+import type { MessageCompiler, MessageFunction } from 'vue-i18n'
 
 // Jogwise's screen texts use two pieces of vue-i18n's message syntax: `{name}` placeholders and
 // `|` between plural forms. This compiler reads just those, so vue-i18n's own (about 5 KB gzip
@@ -7,6 +8,15 @@ import type { MessageCompiler, MessageContext, MessageFunction } from 'vue-i18n'
 // and fails on any difference, so a message using more of the syntax is caught before it ships.
 
 type Part = string | { name: string }
+
+// What a message function is called with (@intlify/core-base createMessageContext); the public
+// MessageContext type leaves out normalize and interpolate, which vue-i18n's own functions use.
+interface Helpers {
+  named: (key: string) => unknown
+  plural: (forms: unknown[]) => unknown
+  normalize: (values: unknown[]) => unknown
+  interpolate: (value: unknown) => unknown
+}
 
 const PLACEHOLDER = /\{\s*([A-Za-z_]\w*)\s*\}/
 
@@ -17,19 +27,21 @@ function partsOf(text: string): Part[] {
 
 const cache = new Map<string, MessageFunction<string>>()
 
-export const compileMessage: MessageCompiler = (source) => {
-  // Messages come from the locale files as text; anything else is shown as it is.
-  if (typeof source !== 'string') return () => source as unknown as string
+export const compileMessage: MessageCompiler = (source, context) => {
+  // The messages files hold text; a message the bundler compiled already (the component tests'
+  // dev build) is rendered by vue-i18n itself, which needs no compiler for that.
+  if (typeof source !== 'string') return compile(source, context)
   const cached = cache.get(source)
   if (cached) return cached
   // Plural forms lose the spaces around their `|`; a message of one form keeps its own spaces.
   const split = source.split('|')
   const forms = split.length > 1 ? split.map(form => partsOf(form.trim())) : [partsOf(source)]
-  const render = (ctx: MessageContext<string>, parts: Part[]) =>
+  const render = (ctx: Helpers, parts: Part[]) =>
     ctx.normalize(parts.map(p => typeof p === 'string' ? p : ctx.interpolate(ctx.named(p.name))))
-  const fn: MessageFunction<string> = forms.length > 1
-    ? ctx => ctx.plural(forms.map(parts => render(ctx, parts)))
-    : ctx => render(ctx, forms[0]!)
+  const run = forms.length > 1
+    ? (ctx: Helpers) => ctx.plural(forms.map(parts => render(ctx, parts)))
+    : (ctx: Helpers) => render(ctx, forms[0]!)
+  const fn = run as unknown as MessageFunction<string>
   cache.set(source, fn)
   return fn
 }

@@ -25,8 +25,8 @@ describe('message compiler', () => {
       const messages = flatten(JSON.parse(readFileSync(join(DIR, file), 'utf8')) as MessageTree)
       const differ: string[] = []
       for (const [key, message] of Object.entries(messages)) {
-        const theirs = compile(message, { key, onError: (e) => { throw e } })
-        const ours = compileMessage(message, { key })
+        const theirs = compile(message, { key, locale: 'en', onError: (e) => { throw e } })
+        const ours = compileMessage(message, { key, locale: 'en' })
         for (const count of [0, 1, 2, 5]) {
           const a = render(theirs, message, count)
           const b = render(ours, message, count)
@@ -50,7 +50,7 @@ describe('message compiler', () => {
     ['{n} entry | {n} entries', {}, 3, '3 entries'],
   ])('%s with %o and count %i reads %s', (message, named, count, expected) => {
     const ctx = createMessageContext({ named: { ...named, n: count }, pluralIndex: count, locale: 'en' })
-    expect(compileMessage(message, { key: 'k' })(ctx)).toBe(expected)
-    expect(compile(message, { key: 'k' })(ctx)).toBe(expected)
+    expect(compileMessage(message, { key: 'k', locale: 'en' })(ctx)).toBe(expected)
+    expect(compile(message, { key: 'k', locale: 'en' })(ctx)).toBe(expected)
   })
 })
