@@ -31,6 +31,11 @@ export default defineNuxtConfig({
     // The messages files are written into the build output, so the service worker precaches
     // them and a Spanish screen reloads offline in Spanish (pwa.config.ts).
     experimental: { prerenderMessages: true },
+    // A lighter entry for every screen (issue 14): Composition API only; no global <i18n-t>,
+    // <i18n-n>, <i18n-d> or v-t (the two components that interpolate one import Translation
+    // themselves); and the app's own small message compiler in place of vue-i18n's
+    // (i18n/message-compiler.ts, set in i18n/i18n.config.ts).
+    bundle: { compositionOnly: true, fullInstall: false, dropMessageCompiler: true },
   },
   // npm run lint: the project's code style (single quotes, no semicolons), eslint.config.mjs.
   eslint: { config: { stylistic: { quotes: 'single', semi: false, indent: 2, commaDangle: 'always-multiline', braceStyle: 'stroustrup', arrowParens: false } } },

@@ -16,7 +16,7 @@ export function invalidIssues(issues: { path: string, message: string }[]) {
 }
 
 /** `skip`: top-level keys whose items the route checks one by one (see checkedInput). */
-export async function readValid<S extends z.ZodType>(event: H3Event, schema: S, skip: readonly string[] = []): Promise<z.output<S>> {
+export async function readValid<S extends z.core.$ZodType>(event: H3Event, schema: S, skip: readonly string[] = []): Promise<z.output<S>> {
   let body: unknown
   try {
     body = await readBody(event)
@@ -30,7 +30,7 @@ export async function readValid<S extends z.ZodType>(event: H3Event, schema: S, 
   return parsed.data as z.output<S>
 }
 
-export function queryValid<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
+export function queryValid<S extends z.core.$ZodType>(event: H3Event, schema: S): z.output<S> {
   const parsed = checkedInput(schema).safeParse(getQuery(event))
   if (!parsed.success) throw invalidIssues(toIssues(parsed.error))
   return parsed.data as z.output<S>

@@ -2,6 +2,7 @@ import { z } from 'zod/mini'
 import { toIssues, type FieldIssue } from '../schemas/issues'
 import { SIGNAL_WORDS } from './signal-words'
 import { longSentence, MAX_SENTENCE_WORDS, plainTextProblem } from './text'
+import { STEP_KEY_PATTERN } from './step-key'
 
 export * from './signal-words'
 export type { FieldIssue } from '../schemas/issues'
@@ -39,8 +40,9 @@ export const SUPPLEMENT_NOTICE = 'Jogwise supplements, and never replaces, the m
   + 'local codes and regulations, and competent shop practice. Where they differ, follow the manual '
   + 'and the rules that apply where you work, and ask your trainer.'
 
-/** Step keys are stable ids that runs refer to, so they stay short, lower-case and URL-safe. */
-export const STEP_KEY_PATTERN = /^[a-z0-9]+(?:-[a-z0-9]+)*$/
+// Kept in small zod-free files, so the Run screen's fold and translations load without the
+// step schemas (issue 14).
+export { STEP_KEY_PATTERN }
 export const MAX_STEPS = 100
 
 interface TextRule {
@@ -218,21 +220,7 @@ export function parseProcedure(input: unknown): ProcedureResult {
   return parsed.success ? { ok: true, procedure: parsed.data } : { ok: false, issues: toIssues(parsed.error) }
 }
 
-/** Where a reading sits against a check's allowed range (bounds are inclusive). */
-export function rangeStatus(step: Pick<CheckStep, 'min' | 'max'>, value: number): 'below' | 'above' | null {
-  if (step.min !== undefined && value < step.min) return 'below'
-  if (step.max !== undefined && value > step.max) return 'above'
-  return null
-}
-
-/** The allowed range as the Run screen prints it, or null when any value is allowed. */
-export function describeRange(step: Pick<CheckStep, 'min' | 'max' | 'unit'>): string | null {
-  const { min, max, unit } = step
-  if (min !== undefined && max !== undefined) return `${min} to ${max} ${unit}`
-  if (min !== undefined) return `at least ${min} ${unit}`
-  if (max !== undefined) return `at most ${max} ${unit}`
-  return null
-}
+export { rangeStatus, describeRange } from './range'
 
 // Storage shape: the database keeps the common columns and puts the kind-specific fields in a
 // JSON `settings` column (server/database/schema.ts, procedure_steps).

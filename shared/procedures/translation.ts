@@ -1,12 +1,14 @@
-import { z } from 'zod'
-import { LANGUAGE_CODE } from '../schemas/language'
-import { STEP_KEY_PATTERN, type ProcedureStep } from './schema'
+import { z } from 'zod/mini'
+import { LANGUAGE_CODE } from '../rules/language'
+import type { ProcedureStep } from './schema'
+import { STEP_KEY_PATTERN } from './step-key'
 import { plainTextProblem } from './text'
 
 // A procedure version's translations (issue 16): per language, the version's title and summary
 // and, step by step, the words a person reads. Keys, kinds, ranges, units and signal words are
 // the original's and are never translated. Stored beside the version (procedure_versions.
-// translations); the original never changes.
+// translations); the original never changes. zod/mini: the Run screen reads translations, and
+// the full zod would load with it (issue 14).
 
 /** The language procedures are written in. A shop writing in another language is a later issue. */
 export const ORIGINAL_LANGUAGE = 'en'
@@ -22,16 +24,17 @@ const LIMITS: Record<StepTextField | 'summary' | 'procedureTitle', number> = {
 }
 
 function translated(label: string, max: number) {
-  return z.string({ error: `${label} must be text.` }).trim()
-    .max(max, `${label} must be at most ${max} characters.`)
-    .superRefine((value, ctx) => {
+  return z.optional(z.string({ error: `${label} must be text.` }).check(
+    z.trim(),
+    z.maxLength(max, `${label} must be at most ${max} characters.`),
+    z.superRefine((value, ctx) => {
       const plain = plainTextProblem(value)
       if (plain) ctx.addIssue({ code: 'custom', message: `${label} ${plain}.` })
-    })
-    .optional()
+    }),
+  ))
 }
 
-export const StepTranslationSchema = z.object({
+export const StepTranslationSchema = z.strictObject({
   title: translated('Translated title', LIMITS.title),
   body: translated('Translated text', LIMITS.body),
   hazard: translated('Translated hazard statement', LIMITS.hazard),
@@ -41,23 +44,26 @@ export const StepTranslationSchema = z.object({
   statement: translated('Translated sign-off statement', LIMITS.statement),
   guidance: translated('Translated guidance', LIMITS.guidance),
   /** Carried over from the previous version for an unchanged step; a trainer confirms it. */
-  draft: z.boolean({ error: 'Draft must be true or false.' }).optional(),
-}, { error: 'Each step translation must be an object of texts.' }).strict()
+  draft: z.optional(z.boolean({ error: 'Draft must be true or false.' })),
+}, { error: 'Each step translation must be an object of texts.' })
 export type StepTranslation = z.output<typeof StepTranslationSchema>
 
-export const VersionTranslationSchema = z.object({
+export const VersionTranslationSchema = z.strictObject({
   title: translated('Translated procedure title', LIMITS.procedureTitle),
   summary: translated('Translated summary', LIMITS.summary),
   steps: z.record(
-    z.string().regex(STEP_KEY_PATTERN, 'Step key may use only lower-case letters, digits and single hyphens (e.g. "isolate-power").').max(60, 'Step key must be at most 60 characters.'),
+    z.string().check(
+      z.regex(STEP_KEY_PATTERN, 'Step key may use only lower-case letters, digits and single hyphens (e.g. "isolate-power").'),
+      z.maxLength(60, 'Step key must be at most 60 characters.'),
+    ),
     StepTranslationSchema,
     { error: 'Steps must be an object of translations by step key.' },
   ),
-}, { error: 'A translation must be an object with a title, summary and steps.' }).strict()
+}, { error: 'A translation must be an object with a title, summary and steps.' })
 export type VersionTranslation = z.output<typeof VersionTranslationSchema>
 
 export const TranslationsSchema = z.record(
-  z.string().regex(LANGUAGE_CODE, 'Language must be a two- or three-letter code such as "es".'),
+  z.string().check(z.regex(LANGUAGE_CODE, 'Language must be a two- or three-letter code such as "es".')),
   VersionTranslationSchema,
 )
 export type Translations = z.output<typeof TranslationsSchema>

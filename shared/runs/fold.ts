@@ -1,4 +1,5 @@
-import { rangeStatus, type ProcedureStep, type StepKind } from '../procedures/schema'
+import type { ProcedureStep, StepKind } from '../procedures/schema'
+import { rangeStatus } from '../procedures/range'
 import { isMeaningfulReason } from '../procedures/text'
 import type { Role } from '../types/roles'
 import { SIGNER_ROLES, type RunEvent, type RunMode, type SignerRole } from './events'

@@ -1,4 +1,5 @@
-import { describeRange, type ProcedureStep } from '../procedures/schema'
+import type { ProcedureStep } from '../procedures/schema'
+import { describeRange } from '../procedures/range'
 import type { RunEvent } from './events'
 import type { EventRef, RunState } from './fold'
 import type { LedgerEntryKind } from './ledger-kinds'
