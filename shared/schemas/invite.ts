@@ -20,7 +20,8 @@ export type InviteCreateInput = z.infer<typeof InviteCreateSchema>
 
 export const InviteTokenSchema = z.object({ token })
 
-export const InviteAcceptSchema = z.object({ token, name, password }).strict()
+/** `language`: the screen language the person joined in; it starts their profile's choice. */
+export const InviteAcceptSchema = z.object({ token, name, password, language: LanguageCodeSchema.optional() }).strict()
 export type InviteAcceptInput = z.infer<typeof InviteAcceptSchema>
 
 /** The join form: the same fields plus the password typed twice (checked in the browser only). */

@@ -26,8 +26,18 @@ describe('the invite e-mail in the invitee\'s language', () => {
     expect(mail.text).toContain('Abre este enlace para elegir tu nombre y tu contraseña:')
     expect(mail.text).toMatch(/El enlace sirve una sola vez y hasta el \d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC\./)
     expect(mail.text).not.toMatch(/\b(invites you|Open this link|The link works)\b/)
-    // The link itself is put in as the mail is sent, whatever the language.
-    expect(inviteLink(mail.text).token).toHaveLength(43)
+    // The link itself is put in as the mail is sent, whatever the language; it opens the join
+    // screen in Spanish, and the person who joins there starts with Spanish in their profile.
+    const { token } = inviteLink(mail.text)
+    expect(token).toHaveLength(43)
+    expect(mail.text).toContain(`/join/${token}?lang=es`)
+    const wrong = await call('POST', '/api/invites/accept', { body: { token, name: 'Rosa Prueba', password: 'operaria-prueba-1', language: 'xx' } })
+    expect(wrong.status).toBe(400)
+    expect(wrong.body.data.issues[0].path).toBe('language')
+    const joined = await call('POST', '/api/invites/accept', { body: { token, name: 'Rosa Prueba', password: 'operaria-prueba-1', language: 'es' } })
+    expect(joined.status, joined.text).toBe(201)
+    const me = await call('GET', '/api/me', { cookie: await signIn(email, 'operaria-prueba-1') })
+    expect(me.body.user.language).toBe('es')
   })
 
   it('stays English for an English-speaking owner who chooses nothing', async () => {

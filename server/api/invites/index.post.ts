@@ -49,8 +49,9 @@ export default defineEventHandler(async (event) => {
       shopId: owner.shopId, kind: 'invite', dedupeKey: `invite:${id}`, to: body.email, subject,
       text: [
         m('intro', { name: owner.name, shop: shopName, role: messageIn(lang, `mail.role.${body.role}`) }),
-        // The link itself is sealed beside the row and put in only as the mail is sent.
-        `${m('openLink')}\n${INVITE_LINK_PLACEHOLDER}`,
+        // The link itself is sealed beside the row and put in only as the mail is sent; the join
+        // screen opens in the mail's language.
+        `${m('openLink')}\n${INVITE_LINK_PLACEHOLDER}?lang=${lang}`,
         m('until', { when: expiresAt.toISOString().replace('T', ' ').slice(0, 16) }),
         m('ignore'),
       ].join('\n\n'),

@@ -36,6 +36,16 @@ describe('locale files', () => {
         const forms = (t: string) => t.split(' | ').length
         expect(Object.keys(english).filter(k => k in other && forms(english[k]!) !== forms(other[k]!))).toEqual([])
       })
+      it('translates one English error template one way only', () => {
+        // Errors are matched by their English text (shared/i18n/translate.ts): two templates with
+        // the same English and different translations would make the choice between them chance.
+        const byText = new Map<string, Set<string>>()
+        for (const [k, text] of Object.entries(english)) {
+          if (!k.startsWith('errors.') || !(k in other)) continue
+          byText.set(text, (byText.get(text) ?? new Set()).add(other[k]!))
+        }
+        expect([...byText].filter(([, ways]) => ways.size > 1).map(([text]) => text)).toEqual([])
+      })
       it('names itself and its Intl tag', () => {
         expect(other['meta.name']).toBeTruthy()
         expect(() => new Intl.NumberFormat(other['meta.tag'])).not.toThrow()
