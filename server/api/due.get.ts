@@ -1,5 +1,6 @@
 // The due list: every maintenance interval on every machine it applies to, worst first.
 export default defineEventHandler(async (event) => {
   const user = await requireShopUser(event)
-  return listDueItems(user.shopId)
+  // Procedure titles in the reader's language
+  return listDueItems(user.shopId, new Date(), callerLanguage(event))
 })

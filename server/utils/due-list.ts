@@ -1,3 +1,5 @@
+import { readTranslations } from '#shared/procedures'
+
 // The maintenance due list: for every interval (procedure × machine, or × every machine in
 // service when machine_id is null) when it was last done and whether it is due again.
 // An interval is satisfied by the last FINISHED run of that procedure on that machine; never
@@ -77,15 +79,18 @@ function round1(n: number) {
   return Math.round(n * 10) / 10
 }
 
-/** Every interval of the shop on every machine it applies to, worst first. */
-export async function listDueItems(shopId: number, now = new Date()): Promise<DueItem[]> {
+/**
+ * Every interval of the shop on every machine it applies to, worst first; procedure titles in
+ * `lang` where the current version has a translation.
+ */
+export async function listDueItems(shopId: number, now = new Date(), lang = 'en'): Promise<DueItem[]> {
   const db = useDB()
   const t = tables
   // The shop's intervals with their procedure's current title
   const intervals = await db.select({
     id: t.maintenanceIntervals.id, procedureId: t.maintenanceIntervals.procedureId, machineId: t.maintenanceIntervals.machineId,
     everyDays: t.maintenanceIntervals.everyDays, everySpindleHours: t.maintenanceIntervals.everySpindleHours,
-    title: t.procedureVersions.title,
+    title: t.procedureVersions.title, translations: t.procedureVersions.translations,
   }).from(t.maintenanceIntervals)
     .innerJoin(t.procedures, eq(t.procedures.id, t.maintenanceIntervals.procedureId))
     .leftJoin(t.procedureVersions, eq(t.procedureVersions.id, t.procedures.currentVersionId))
@@ -115,12 +120,13 @@ export async function listDueItems(shopId: number, now = new Date()): Promise<Du
 
   const out: DueItem[] = []
   for (const i of intervals) {
+    const title = readTranslations(i.translations)[lang]?.title || (i.title ?? `Procedure ${i.procedureId}`)
     for (const m of machines.filter(m => i.machineId === null || m.id === i.machineId)) {
       const lastDoneAt = lastDone.get(`${m.id}:${i.procedureId}`) ?? null
       const spindleHoursSince = i.everySpindleHours ? await spindleSince(m.id, lastDoneAt) : 0
       const { status, reason, dueAt, daysSince } = dueStatusOf({ everyDays: i.everyDays, everySpindleHours: i.everySpindleHours, lastDoneAt, addedAt: m.createdAt, spindleHoursSince }, now)
       out.push({
-        intervalId: i.id, procedureId: i.procedureId, procedureTitle: i.title ?? `Procedure ${i.procedureId}`,
+        intervalId: i.id, procedureId: i.procedureId, procedureTitle: title,
         machineId: m.id, machineName: m.name, status, reason, daysSince,
         lastDoneAt: lastDoneAt?.toISOString() ?? null, dueAt: dueAt?.toISOString() ?? null,
         spindleHoursSince: i.everySpindleHours ? round1(spindleHoursSince) : null,

@@ -165,6 +165,15 @@ describe('a trainee in Spanish acknowledges a hold', () => {
     expect(await summaryIn('en')).toBe('Signed off "Sign off" as trainer. Text on screen: es.')
   })
 
+  it('names the run\'s procedure on the Floor\'s list of runs in the reader\'s language', async () => {
+    const titleIn = async (language: string) => {
+      const runs = await call('GET', '/api/runs?status=active&limit=200', { cookie: await as('trainer'), headers: { 'accept-language': language } })
+      return runs.body.find((r: any) => r.id === runId)?.procedureTitle
+    }
+    expect(await titleIn('es')).toBe(SPANISH.title)
+    expect(await titleIn('en')).toBe(PROCEDURE.title)
+  })
+
   it('refuses a language field that is not a language code, keeping the event visible as refused', async () => {
     const bad = ev('step.done', 2, { stepKey: 'work' })
     const badAck = { ...ev('hold.acknowledged', 3, { stepKey: 'isolate' }), lang: 'Español!' }
@@ -173,6 +182,27 @@ describe('a trainee in Spanish acknowledges a hold', () => {
     const refused = res.body.rejected.find((r: any) => r.id === badAck.id)
     expect(refused).toBeTruthy()
     expect(JSON.stringify(refused)).toMatch(/lang/)
+  })
+})
+
+describe('the due list in the reader\'s language', () => {
+  it('names a translated procedure in Spanish and the others as written', async () => {
+    const owner = await as('owner')
+    // This file's procedure has a Spanish title (written above); an interval on it for a moment
+    const made = await call('POST', '/api/maintenance-intervals', { cookie: owner, body: { procedureId, machineId, everyDays: 7 } })
+    expect(made.status, made.text).toBe(201)
+    try {
+      const titleIn = async (language: string) => {
+        const due = await call('GET', '/api/due', { cookie: owner, headers: { 'accept-language': language } })
+        expect(due.status).toBe(200)
+        return due.body.find((d: any) => d.intervalId === made.body.id)?.procedureTitle
+      }
+      expect(await titleIn('es')).toBe(SPANISH.title)
+      expect(await titleIn('en')).toBe(PROCEDURE.title)
+    }
+    finally {
+      await call('DELETE', `/api/maintenance-intervals/${made.body.id}`, { cookie: owner })
+    }
   })
 })
 

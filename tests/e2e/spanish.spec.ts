@@ -27,7 +27,7 @@ async function visibleText(page: Page) {
 /**
  * What the shop typed in English, which stays as typed in every language: machine and cutter
  * names and notes, reading notes, and procedures nobody has translated into Spanish (other
- * tests add some). A cutter called "Straight bit 1/4 in" is not the app's "Straight bit" left
+ * tests add some, and start runs of them). A cutter called "Straight bit 1/4 in" is not the app's "Straight bit" left
  * in English.
  */
 async function shopData(page: Page) {
@@ -37,7 +37,12 @@ async function shopData(page: Page) {
   const readings = (await Promise.all(machines.map(m => get(`/api/machines/${m.id}/readings`)))).flat() as { note: string | null }[]
   const procedures = await get('/api/procedures') as { current: { title: string, steps: { title: string, body: string }[], translations?: { es?: unknown } | null } }[]
   const untranslated = procedures.filter(p => !p.current.translations?.es).flatMap(p => [p.current.title, ...p.current.steps.flatMap(s => [s.title, s.body])])
-  return [...machines.map(m => m.name), ...tools.flatMap(t => [t.name, t.notes ?? '']), ...readings.map(r => r.note ?? ''), ...untranslated]
+  // Runs in progress and the due list name their procedure (and step) in Spanish where the
+  // version has them; what stays English there is an untranslated one (a retired procedure's).
+  const runs = await get('/api/runs?status=active&limit=200') as { procedureTitle: string, currentStepTitle: string | null }[]
+  const due = await get('/api/due') as { procedureTitle: string }[]
+  return [...machines.map(m => m.name), ...tools.flatMap(t => [t.name, t.notes ?? '']), ...readings.map(r => r.note ?? ''), ...untranslated,
+    ...runs.flatMap(r => [r.procedureTitle, r.currentStepTitle ?? '']), ...due.map(d => d.procedureTitle)]
     .filter(Boolean).sort((a, b) => b.length - a.length)
 }
 let SHOP_DATA: string[] = []

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { MAX_ID } from '#shared/schemas/input'
 import { RUN_STATUSES } from '#shared/rules/enums'
+import { readTranslations } from '#shared/procedures'
 
 const QuerySchema = z.object({
   status: z.enum([...RUN_STATUSES, 'all'], { error: 'status must be active, finished, abandoned, withdrawn or all.' }).default('active'),
@@ -22,7 +23,7 @@ export default defineEventHandler(async (event) => {
     procedureId: tables.procedureVersions.procedureId, procedureTitle: tables.procedureVersions.title,
     version: tables.procedureVersions.version, startedBy: tables.runs.startedBy, startedByName: tables.users.name,
     currentStepKey: tables.runs.currentStepKey, startedAt: tables.runs.startedAt, finishedAt: tables.runs.finishedAt,
-    updatedAt: tables.runs.updatedAt,
+    updatedAt: tables.runs.updatedAt, translations: tables.procedureVersions.translations,
   }).from(tables.runs)
     .innerJoin(tables.machines, eq(tables.machines.id, tables.runs.machineId))
     .innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, tables.runs.procedureVersionId))
@@ -37,8 +38,17 @@ export default defineEventHandler(async (event) => {
   const byKey = new Map(steps.map(s => [`${s.versionId}:${s.key}`, s]))
   const counts = new Map<number, number>()
   for (const s of steps) counts.set(s.versionId, (counts.get(s.versionId) ?? 0) + 1)
-  return rows.map(r => {
+  // The procedure's and the step's titles in the reader's language where the version has them
+  const lang = callerLanguage(event)
+  const translated = new Map<number, ReturnType<typeof readTranslations>[string]>()
+  for (const r of rows) if (!translated.has(r.procedureVersionId)) translated.set(r.procedureVersionId, readTranslations(r.translations)[lang])
+  return rows.map(({ translations: _stored, ...r }) => {
     const step = r.currentStepKey ? byKey.get(`${r.procedureVersionId}:${r.currentStepKey}`) : undefined
-    return { ...r, currentStepTitle: step?.title ?? null, currentStepNumber: step ? step.position + 1 : null, stepCount: counts.get(r.procedureVersionId) ?? 0 }
+    const t = translated.get(r.procedureVersionId)
+    return {
+      ...r, procedureTitle: t?.title || r.procedureTitle,
+      currentStepTitle: step ? (t?.steps[step.key]?.title || step.title) : null,
+      currentStepNumber: step ? step.position + 1 : null, stepCount: counts.get(r.procedureVersionId) ?? 0,
+    }
   })
 })
