@@ -40,7 +40,7 @@ export default defineEventHandler(async (event) => {
   for (const s of steps) counts.set(s.versionId, (counts.get(s.versionId) ?? 0) + 1)
   // The procedure's and the step's titles in the reader's language where the version has them
   const lang = callerLanguage(event)
-  const translated = new Map<number, ReturnType<typeof readTranslations>[string]>()
+  const translated = new Map<number, ReturnType<typeof readTranslations>[string] | undefined>()
   for (const r of rows) if (!translated.has(r.procedureVersionId)) translated.set(r.procedureVersionId, readTranslations(r.translations)[lang])
   return rows.map(({ translations: _stored, ...r }) => {
     const step = r.currentStepKey ? byKey.get(`${r.procedureVersionId}:${r.currentStepKey}`) : undefined
