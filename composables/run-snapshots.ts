@@ -42,6 +42,24 @@ export async function addToRunSnapshots(events: ServerEvent[]) {
   }
 }
 
+/**
+ * Joins two lists of one run's server events by id. The server never deletes an event, so no
+ * copy may drop one the other has (an answer the service worker cached at the run's start knows
+ * fewer events than this tablet's copy). On the same id `newer` wins (the server may re-flag an
+ * event), except that a tablet's stand-in for an accepted event (seq 0) never replaces a copy the
+ * server sent. Server order (seq) is kept; stand-ins go last.
+ */
+export function mergeServerEvents(older: ServerEvent[], newer: ServerEvent[]): ServerEvent[] {
+  const byId = new Map<string, ServerEvent>()
+  for (const e of older) byId.set(e.id, e)
+  for (const e of newer) {
+    const had = byId.get(e.id)
+    if (!had || !(e.seq === 0 && had.seq > 0)) byId.set(e.id, e)
+  }
+  const seqOf = (e: ServerEvent) => (e.seq > 0 ? e.seq : Number.MAX_SAFE_INTEGER)
+  return [...byId.values()].sort((a, b) => seqOf(a) - seqOf(b))
+}
+
 /** A stored event as the fold reads it (without the server's sequence number and flag). */
 export function withoutServerFields(e: ServerEvent): RunEvent {
   const { seq: _seq, flag: _flag, ...event } = e

@@ -2,7 +2,7 @@ import { foldRun, makeEvent, newRunId, nextAction } from '#shared/runs'
 import type { RunEvent, RunEventPayload, RunEventType, RunMode } from '#shared/runs'
 import type { LengthUnit } from '#shared/machining'
 import type { ServerEvent } from '#shared/schemas/sync'
-import { readRunSnapshot, withoutServerFields as strip, writeRunSnapshot, type RunSnapshot, type RunVersion } from './run-snapshots'
+import { mergeServerEvents, readRunSnapshot, withoutServerFields as strip, writeRunSnapshot, type RunSnapshot, type RunVersion } from './run-snapshots'
 
 // A run on this tablet: the exact procedure version it follows, the events the server has,
 // and the events still waiting in the queue, folded by shared/runs. The Run screen only renders
@@ -28,13 +28,17 @@ export function useRun(runId: string) {
       const saved = Number.isFinite(servedAt) && Date.now() - servedAt > 120_000
       const machines = await $fetch<{ id: number, name: string, units: LengthUnit }[]>('/api/machines', { timeout: 8000 }).catch(() => [])
       const machine = machines.find(m => m.id === res.run.machineId)
+      // Read the copy again: the sync queue may have added confirmed events while we fetched.
+      // A cached answer is older than the copy, so the copy's events win over it; a fresh one wins.
+      const copy = (await readRunSnapshot(runId))?.serverEvents ?? []
+      const serverEvents = saved ? mergeServerEvents(res.events, copy) : mergeServerEvents(copy, res.events)
       snapshot.value = {
         runId,
         machineId: res.run.machineId,
         machineName: machine?.name ?? cached?.machineName ?? 'Machine',
         machineUnits: machine?.units ?? cached?.machineUnits,
         version: res.version,
-        serverEvents: res.events,
+        serverEvents,
         people: res.people,
         savedAt: new Date().toISOString(),
       }

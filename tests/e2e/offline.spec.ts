@@ -106,3 +106,36 @@ test('when the session ended while offline, the queue waits for a new sign-in an
   expect(body.events.map((e: any) => e.type)).toEqual(['run.started', 'hold.acknowledged'])
   await context.close()
 })
+
+test('steps the server has confirmed stay done after a reload offline, and after the network returns', async ({ browser }) => {
+  // The service worker's copy of the run is the answer from the run's start; the tablet's own
+  // copy holds what was synced since. A reload offline must not step the run back.
+  const context = await browser.newContext()
+  const page = await context.newPage()
+  await signInForOffline(page, 'operator')
+  const runId = await startProcedure(page, 'Bench Router', /Change the collet and bit/)
+  await pressAndHold(page, /Hold to acknowledge/)
+  await pressAndHold(page, /Hold to acknowledge/)
+  await runReady(page)
+  await page.getByRole('button', { name: /Done — next step/ }).click()
+  await expect(page.getByText('3 of 11 done')).toBeVisible()
+  await expect(syncState(page)).toHaveText('Online', { timeout: 30_000 })
+  const stored = await (await page.request.get(`/api/runs/${runId}`)).json()
+  expect(stored.events).toHaveLength(4)
+
+  await context.setOffline(true)
+  await page.reload()
+  await hydrated(page)
+  await expect(syncState(page)).toContainText('Offline')
+  await expect(page.getByText('3 of 11 done')).toBeVisible()
+  await expect(page.getByRole('heading', { level: 1 })).not.toHaveText('Stop the spindle before you touch the cutter')
+
+  await context.setOffline(false)
+  await expect(syncState(page)).toHaveText('Online', { timeout: 30_000 })
+  await expect(page.getByText('3 of 11 done')).toBeVisible()
+  // And a reload online agrees with the server.
+  await page.reload()
+  await hydrated(page)
+  await expect(page.getByText('3 of 11 done')).toBeVisible()
+  await context.close()
+})
