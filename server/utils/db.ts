@@ -30,6 +30,11 @@ export function useDB() {
       // Timestamps are stored and read as UTC whatever the machine's zone.
       timezone: 'Z',
       dateStrings: false,
+      // mysql2's own formatting, except that a statement with no values is sent as it is: the
+      // default scans the whole text for placeholders even then, and a sync batch's INSERT is
+      // written (escaped) before it is sent, some 100 KB scanned a second time (issue 14).
+      queryFormat: (statement: string, values: unknown) =>
+        values === undefined || (Array.isArray(values) && values.length === 0) ? statement : mysql.format(statement, values as never, false, 'Z'),
     })
     db = drizzle(pool, { schema, mode: 'default' })
   }

@@ -46,11 +46,13 @@ export interface LedgerEventRow { id: string, runId: string, type: string, actor
 /**
  * `summaries`: what refoldRuns writes back to each run's row, set in the same UPDATE as its
  * spindle time (one statement per run, issue 14). `peopleIds`: the shop's people, when the
- * caller has just read them.
+ * caller has just read them. `newRuns`: runs the caller's transaction created, which hold no
+ * entries yet (not read for).
  */
 export interface LedgerWriteOptions {
   summaries?: ReadonlyMap<string, Pick<typeof tables.runs.$inferInsert, 'status' | 'currentStepKey' | 'finishedAt'>>
   peopleIds?: ReadonlySet<number>
+  newRuns?: ReadonlySet<string>
 }
 
 export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[], arrivedIds: readonly string[] = [], runEvents?: LedgerEventRow[], options: LedgerWriteOptions = {}) {
@@ -79,10 +81,14 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
   const arrived = new Set(arrivedIds)
 
   // The entries these runs have now (every revision, changed ones included)
-  const existing = await db.select({
-    id: l.id, runId: l.runId, eventId: l.eventId, kind: l.kind, actorId: l.actorId, stepKey: l.stepKey, at: l.at,
-    counted: l.counted, revision: l.revision, changedAt: l.changedAt, entryKey: l.entryKey, detail: l.detail,
-  }).from(l).where(and(eq(l.shopId, shopId), inArray(l.runId, runIds)))
+  // (none yet for a run this transaction created: nobody else can have written to it)
+  const toRead = runIds.filter(id => !options.newRuns?.has(id))
+  const existing = toRead.length
+    ? await db.select({
+      id: l.id, runId: l.runId, eventId: l.eventId, kind: l.kind, actorId: l.actorId, stepKey: l.stepKey, at: l.at,
+      counted: l.counted, revision: l.revision, changedAt: l.changedAt, entryKey: l.entryKey, detail: l.detail,
+    }).from(l).where(and(eq(l.shopId, shopId), inArray(l.runId, toRead)))
+    : []
   const current = new Map<string, typeof existing[number]>()
   const lastRevision = new Map<string, number>()
   for (const r of existing) {

@@ -62,6 +62,32 @@ export async function installStarterLibrary(tx: Tx | DB, shopId: number, created
   }
 }
 
+// A published version's steps never change (an edit publishes a new version, a new row), so the
+// sync merge's fold keeps them per process instead of reading and checking them again on every
+// batch (issue 14). Titles, categories and translations can change and are not kept here.
+const STEPS_KEPT = 500
+const keptSteps = new Map<string, { procedureId: number, steps: readonly ProcedureStep[] }>()
+
+/** Each version's procedure and steps, only within one shop: from memory, else loadVersions. */
+export async function loadVersionSteps(shopId: number, versionIds: number[], db: DB = useDB()) {
+  const out = new Map<number, { procedureId: number, steps: readonly ProcedureStep[] }>()
+  const missing: number[] = []
+  for (const id of versionIds) {
+    const kept = keptSteps.get(`${shopId}:${id}`)
+    if (kept) out.set(id, kept)
+    else missing.push(id)
+  }
+  if (!missing.length) return out
+  for (const [id, v] of await loadVersions(shopId, missing, db)) {
+    const entry = { procedureId: v.procedureId, steps: v.steps }
+    out.set(id, entry)
+    // The oldest kept version makes room (a Map iterates in insertion order)
+    if (keptSteps.size >= STEPS_KEPT) keptSteps.delete(keptSteps.keys().next().value!)
+    keptSteps.set(`${shopId}:${id}`, entry)
+  }
+  return out
+}
+
 /** Loads versions with their steps, only within one shop. A stored step that no longer passes
  *  the schema is reported, never silently shown. */
 export async function loadVersions(shopId: number, versionIds: number[], db: DB = useDB()): Promise<Map<number, VersionWithSteps>> {

@@ -1,4 +1,5 @@
 import mysql from 'mysql2'
+import { alias } from 'drizzle-orm/mysql-core'
 import { foldRun } from '#shared/runs'
 import { checkRunEvent } from '#shared/runs/event-check'
 import type { RunEvent } from '#shared/runs'
@@ -18,7 +19,7 @@ const BASE_KEYS = new Set(['id', 'runId', 'type', 'at', 'actorId', 'deviceId'])
 interface StoredRow { seq: number, id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, payload: Record<string, unknown>, flag: string | null }
 /** A stored event as the fold and the Ledger read it. */
 type FoldRow = Omit<StoredRow, 'seq'> & { receivedAt: Date }
-/** A run whose row and stored events the caller already has (a fresh run, freshRows): the rows and, in the same order, the fold's events. */
+/** A run this transaction created, whose stored events the caller already has (freshRows): the rows and, in the same order, the fold's events. */
 interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[], events: RunEvent[] }
 
 /**
@@ -94,41 +95,48 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     candidates.push({ event })
   }
 
-  // 2. Ids already stored: the same event again is accepted (a replay), another one is not.
+  // 2.–3. What is already stored: these ids (the same event again is accepted as a replay,
+  // another one is not), the runs they belong to, this shop's people and what this person may
+  // run solo. The four reads do not depend on each other and go out at once on the pool's
+  // connections (one after another they were a fifth of the merge's time, issue 14).
   const ids = candidates.map(c => c.event.id)
-  // Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14).
-  const existing = ids.length
-    ? await selectRows<{ id: string, runId: string, shopId: number }>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
-    : []
-  const existingById = new Map(existing.map(e => [e.id, e]))
-
-  // 3. The runs these events belong to, and what a new run needs to be allowed.
   const runIds = [...new Set(candidates.map(c => c.event.runId))]
-  const runRows = runIds.length
-    ? await db.select({
-      id: tables.runs.id, shopId: tables.runs.shopId, procedureVersionId: tables.runs.procedureVersionId,
-      startedBy: tables.runs.startedBy, mode: tables.runs.mode, procedureId: tables.procedureVersions.procedureId,
-    }).from(tables.runs).innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, tables.runs.procedureVersionId))
-      .where(inArray(tables.runs.id, runIds))
-    : []
+  const [existing, runRows, people, qualifications] = await Promise.all([
+    // Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14).
+    ids.length
+      ? selectRows<{ id: string, runId: string, shopId: number }>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
+      : [],
+    // The runs these events belong to, with their procedure
+    runIds.length
+      ? db.select({
+        id: tables.runs.id, shopId: tables.runs.shopId, procedureVersionId: tables.runs.procedureVersionId,
+        startedBy: tables.runs.startedBy, mode: tables.runs.mode, procedureId: tables.procedureVersions.procedureId,
+      }).from(tables.runs).innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, tables.runs.procedureVersionId))
+        .where(inArray(tables.runs.id, runIds))
+      : [],
+    // This shop's people
+    db.select({
+      id: tables.users.id, name: tables.users.name, role: tables.users.role, active: tables.users.active,
+      pinHash: tables.users.pinHash, passwordHash: tables.users.passwordHash,
+    }).from(tables.users).where(eq(tables.users.shopId, user.shopId)),
+    // The procedures this person may run solo
+    db.select({ procedureId: tables.qualifications.procedureId }).from(tables.qualifications).where(eq(tables.qualifications.userId, user.id)),
+  ])
+  const existingById = new Map(existing.map(e => [e.id, e]))
   const runsById = new Map(runRows.map(r => [r.id, r]))
-  const people = await db.select({
-    id: tables.users.id, name: tables.users.name, role: tables.users.role, active: tables.users.active,
-    pinHash: tables.users.pinHash, passwordHash: tables.users.passwordHash,
-  }).from(tables.users).where(eq(tables.users.shopId, user.shopId))
   const personById = new Map(people.map(p => [p.id, p]))
   // The Ledger names people of this shop only (ledger-write.ts): read here once, not again per run
   const peopleIds = new Set(people.map(p => p.id))
-  // Who may act on the runs already stored (run-actors.ts), and what this person may do solo
-  const crews = await loadRunCrews(db, user.shopId, runRows.filter(r => r.shopId === user.shopId))
-  const qualifiedFor = new Set((await db.select({ procedureId: tables.qualifications.procedureId }).from(tables.qualifications)
-    .where(eq(tables.qualifications.userId, user.id))).map(q => q.procedureId))
+  const qualifiedFor = new Set(qualifications.map(q => q.procedureId))
+  // Who may act on the runs already stored (run-actors.ts), and how many events each holds. A
+  // run not stored yet has no events stored either (an event is stored only with its run).
+  const [crews, sizes] = await Promise.all([
+    loadRunCrews(db, user.shopId, runRows.filter(r => r.shopId === user.shopId)),
+    runSizes(runIds.filter(id => runsById.has(id))),
+  ])
   const batchNonces = new Set<string>()
   const nonces: (typeof tables.signoffNonces.$inferInsert)[] = []
   const failedSignoffs: Parameters<typeof enqueueSignoffFailedAlerts>[2] = []
-
-  // A run not stored yet has no events stored either (an event is stored only with its run).
-  const sizes = await runSizes(runIds.filter(id => runsById.has(id)))
 
   const accepted: string[] = []
   const toInsert: RunEvent[] = []
@@ -147,7 +155,7 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     const run = runsById.get(event.runId)
     if (run && run.shopId !== user.shopId) { reject(event.id, 'No such run.'); continue }
     if (event.type === 'run.started' && !run && !newRuns.has(event.runId)) {
-      const problem = await checkRunStart(user, event)
+      const problem = await checkRunStart(user, event, qualifiedFor)
       if (problem) { refusedRuns.set(event.runId, problem); reject(event.id, problem); continue }
       newRuns.set(event.runId, {
         id: event.runId, shopId: user.shopId, machineId: event.machineId, procedureVersionId: event.procedureVersionId,
@@ -235,18 +243,25 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   let cursor = request.since ?? 0
   const events: ServerEvent[] = []
   if (watched.length) {
-    const e = tables.runEvents
-    const newer = and(eq(e.shopId, user.shopId), inArray(e.runId, watched), gt(e.seq, request.since ?? 0))
-    // The newest of them, for the cursor; and the rows themselves, but the tablet's own events
-    // only when the server added its verdict to them (not read back at all otherwise, issue 14).
-    const [top] = await db.select({ seq: sql<number | null>`max(${e.seq})` }).from(e).where(newer)
-    cursor = Math.max(cursor, Number(top?.seq ?? 0))
     const own = [...sentIds].filter((id): id is string => typeof id === 'string')
-    // The list of own ids is escaped by mysql2 (drizzle's builder was slower than the query, issue 14).
-    const rows = await db.select(storedColumns).from(e)
-      .where(own.length ? and(newer, or(sql.raw(mysql.format('run_events.id not in (?)', [own])), sql`json_exists(${e.payload}, '$.verdict')`)) : newer)
-      .orderBy(asc(e.seq))
-    for (const row of rows) events.push(toServerEvent(row))
+    const since = request.since ?? 0
+    // One statement, so the cursor and the rows come from the same snapshot: the newest of these
+    // runs' events (the cursor), beside the rows themselves, but the tablet's own events only
+    // when the server added its verdict to them (not read back at all otherwise). The derived
+    // table gives one row even when no event is new. Escaped by mysql2 (issue 14).
+    const newer = (t: string) => mysql.format(`${t}.shop_id = ? and ${t}.run_id in (?) and ${t}.seq > ?`, [user.shopId, watched, since])
+    type Row = { top: number | null, seq: number, id: string | null, runId: string, type: string, actorId: number, deviceId: string, at: string, payload: unknown, flag: string | null }
+    const [rows] = await db.execute(sql.raw(`select latest.top, r.seq, r.id, r.run_id as runId, r.type, r.actor_id as actorId, r.device_id as deviceId, r.at, r.payload, r.flag
+      from (select max(n.seq) as top from run_events n where ${newer('n')}) latest
+      left join run_events r on ${newer('r')}${own.length ? mysql.format(' and (r.id not in (?) or json_exists(r.payload, \'$.verdict\'))', [own]) : ''}
+      order by r.seq`)) as unknown as [Row[]]
+    cursor = Math.max(cursor, Number(rows[0]?.top ?? 0))
+    for (const row of rows) {
+      if (row.id === null) continue
+      // As drizzle reads them: a timestamp comes as UTC text, the JSON column as text
+      const payload = (typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload) as Record<string, unknown>
+      events.push(toServerEvent({ seq: row.seq, id: row.id, runId: row.runId, type: row.type, actorId: row.actorId, deviceId: row.deviceId, at: new Date(`${row.at}+0000`), payload, flag: row.flag }))
+    }
   }
   return { accepted, rejected, events, cursor }
 }
@@ -298,28 +313,26 @@ function sizeProblem(sizes: Map<string, { events: number, notes: number }>, even
 // to store them (issue 14); mysql2's own escaping (format) writes the same statement directly.
 // Times as drizzle writes a timestamp column: UTC, milliseconds kept.
 const sqlTime = (iso: string) => new Date(iso).toISOString().slice(0, -1).replace('T', ' ')
-function insertEventsSql(shopId: number, events: RunEvent[], json: Map<string, string>) {
+function insertEventsSql(shopId: number, events: RunEvent[], json: Map<string, string>, passDuplicates: boolean) {
   const rows = events.map(e => [e.id, shopId, e.runId, e.type, e.actorId, e.deviceId, sqlTime(e.at), json.get(e.id)])
-  // These events' rows; a duplicate id changes nothing
-  return mysql.format('insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ? on duplicate key update id = id', [rows])
+  // These events' rows; with passDuplicates a duplicate id changes nothing, else it refuses the statement
+  return mysql.format(`insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ?${passDuplicates ? ' on duplicate key update id = id' : ''}`, [rows])
 }
 
 /**
  * The rows of a run this batch starts, as a read would return them (the same JSON round trip
- * and millisecond time as insertEventsSql, no flag yet), when the run holds exactly the rows
- * that one INSERT just stored: as many rows as events, all with that statement's received_at.
- * Otherwise (a duplicate id, another merge of the same run) undefined, and the caller reads.
+ * and millisecond time as insertEventsSql, no flag yet). Called only when this transaction
+ * created the run's row and one plain INSERT (no duplicate passed over) stored every event:
+ * the run is invisible to every other merge until this one commits, so it holds exactly these
+ * rows, all with that statement's received_at, read back from one of them (issue 14: counting
+ * the run's rows again cost a tenth of the merge).
  * The fold's events are made here too, once, as toRunEvent would make them from those rows.
  */
-async function freshRows(db: DB, shopId: number, run: typeof tables.runs.$inferInsert, events: RunEvent[], json: Map<string, string>): Promise<Map<string, KnownRun> | undefined> {
+async function freshRows(db: DB, run: typeof tables.runs.$inferInsert, events: RunEvent[], json: Map<string, string>): Promise<Map<string, KnownRun> | undefined> {
   const e = tables.runEvents
-  // How many rows the run holds, and when they arrived (one statement: issue 14)
-  const [held] = await db.select({
-    n: count(), oneTime: sql<number | null>`min(${e.receivedAt}) = max(${e.receivedAt})`,
-    receivedAt: sql<Date | null>`min(${e.receivedAt})`.mapWith(e.receivedAt),
-  }).from(e).where(and(eq(e.shopId, shopId), eq(e.runId, run.id)))
-  if (!held || Number(held.n) !== events.length || Number(held.oneTime) !== 1) return undefined
-  const receivedAt = held.receivedAt
+  // When the statement stored them (the column's default, the database's clock)
+  const [held] = await db.select({ receivedAt: e.receivedAt }).from(e).where(eq(e.id, events[0]!.id)).limit(1)
+  const receivedAt = held?.receivedAt
   if (!(receivedAt instanceof Date) || Number.isNaN(receivedAt.getTime())) return undefined
   const rows: FoldRow[] = []
   const folded: RunEvent[] = []
@@ -362,7 +375,18 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
     const done: RunEvent[] = []
     await tx.transaction(async (sp) => {
       const db = sp as unknown as DB
-      if (newRun) await db.insert(tables.runs).values(newRun).onDuplicateKeyUpdate({ set: { id: sql`id` } })
+      // The run's row. Another merge of the same new run may have stored it first; then this one
+      // adds to it, and the run's rows are read back below rather than assumed.
+      let created = false
+      if (newRun) {
+        try {
+          await db.insert(tables.runs).values(newRun)
+          created = true
+        }
+        catch (error) {
+          if (!duplicateKey(error)) throw error
+        }
+      }
       const rowOf = (e: RunEvent) => ({
         id: e.id, shopId: user.shopId, runId: e.runId, type: e.type, actorId: e.actorId, deviceId: e.deviceId,
         at: new Date(e.at), payload: payloadOf(e),
@@ -372,16 +396,26 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       // one it refuses is named and the others are stored. No savepoint of its own: a statement
       // MariaDB refuses is undone whole by InnoDB (its trigger's writes too), and the errors that
       // undo the whole transaction instead (deadlock, lost connection) are thrown on below.
+      // In a run created here no id can be stored already (ids stored before were sorted out
+      // above), so the plain INSERT is tried first: when it goes through, every row is new. A
+      // duplicate id (the same event sent twice at once) refuses it; the second form passes over it.
       let together = false
+      let plain = false
       if (batch.length > 1) {
-        try {
-          // These events' rows; a duplicate id changes nothing
-          await db.execute(sql.raw(insertEventsSql(user.shopId, batch, json)))
-          done.push(...batch)
-          together = true
-        }
-        catch (error) {
-          if (transient(error)) throw error
+        for (const passDuplicates of created ? [false, true] : [true]) {
+          try {
+            // These events' rows
+            await db.execute(sql.raw(insertEventsSql(user.shopId, batch, json, passDuplicates)))
+            done.push(...batch)
+            together = true
+            plain = !passDuplicates
+            break
+          }
+          catch (error) {
+            if (transient(error)) throw error
+            if (!passDuplicates && duplicateKey(error)) continue
+            break
+          }
         }
       }
       if (!together) {
@@ -402,7 +436,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       if (!done.length) return
       // A run this batch starts, stored in one statement, is folded from these events as stored
       // instead of being read back (issue 14), when freshRows finds it holds just those rows.
-      const known = newRun && together ? await freshRows(db, user.shopId, newRun, done, json) : undefined
+      const known = newRun && created && plain ? await freshRows(db, newRun, done, json) : undefined
       await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known, peopleIds)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
@@ -431,51 +465,45 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
 }
 
 /**
+ * Is this person allowed to start this run here? Returns the reason when not. `qualifiedFor`:
+ * the procedures this person may run solo (the caller has read them).
+ *
  * A run follows the version that is current when it starts. One started on an older version,
  * or on a retired procedure, is refused, unless the tablet started it (its own clock) before
  * the newer version was published or the procedure retired: it was offline and could not know.
  */
-async function outdatedVersionProblem(event: Extract<RunEvent, { type: 'run.started' }>, procedureId: number, procedureRetiredAt: Date | null): Promise<string | null> {
-  const db = useDB()
-  const startedAt = Date.parse(event.at)
-  if (procedureRetiredAt && procedureRetiredAt.getTime() <= startedAt) {
-    return 'This procedure was retired before the run started; it can no longer be run.'
-  }
-  // The versions published after this one
-  const [newer] = await db.select({ version: tables.procedureVersions.version, createdAt: tables.procedureVersions.createdAt })
-    .from(tables.procedureVersions)
-    .where(and(eq(tables.procedureVersions.procedureId, procedureId), gt(tables.procedureVersions.id, event.procedureVersionId)))
-    .orderBy(asc(tables.procedureVersions.createdAt)).limit(1)
-  if (newer && newer.createdAt.getTime() <= startedAt) {
-    return `Version ${newer.version} of this procedure was published before the run started; start the run again on the current version.`
-  }
-  return null
-}
-
-/** Is this person allowed to start this run here? Returns the reason when not. */
-async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>): Promise<string | null> {
+async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>, qualifiedFor: ReadonlySet<number>): Promise<string | null> {
   const db = useDB()
   const m = tables.machines
   const v = tables.procedureVersions
-  // The machine, in this shop, with the version (in this shop) and its procedure: one statement (issue 14)
-  const [found] = await db.select({ retiredAt: m.retiredAt, procedureId: v.procedureId, procedureRetiredAt: tables.procedures.retiredAt }).from(m)
+  const newer = alias(tables.procedureVersions, 'newer')
+  // The machine, in this shop, with the version (in this shop), its procedure and the first
+  // version published after it, if any: one statement (issue 14). Without a newer version the
+  // left join gives one row of nulls; with some, the earliest comes first.
+  const [found] = await db.select({
+    retiredAt: m.retiredAt, procedureId: v.procedureId, procedureRetiredAt: tables.procedures.retiredAt,
+    newerVersion: newer.version, newerAt: newer.createdAt,
+  }).from(m)
     .leftJoin(v, and(eq(v.id, event.procedureVersionId), eq(v.shopId, user.shopId)))
     .leftJoin(tables.procedures, eq(tables.procedures.id, v.procedureId))
-    .where(and(eq(m.id, event.machineId), eq(m.shopId, user.shopId))).limit(1)
+    .leftJoin(newer, and(eq(newer.procedureId, v.procedureId), gt(newer.id, event.procedureVersionId)))
+    .where(and(eq(m.id, event.machineId), eq(m.shopId, user.shopId)))
+    .orderBy(asc(newer.createdAt)).limit(1)
   if (!found) return 'No such machine in this shop.'
   if (found.retiredAt) return 'That machine is retired.'
   if (found.procedureId === null) return 'No such procedure version in this shop.'
-  const outdated = await outdatedVersionProblem(event, found.procedureId, found.procedureRetiredAt)
-  if (outdated) return outdated
-  if (event.mode === 'solo') {
-    // Is this person qualified to run this procedure unsupervised?
-    const [q] = await db.select({ id: tables.qualifications.id }).from(tables.qualifications)
-      .where(and(eq(tables.qualifications.userId, user.id), eq(tables.qualifications.procedureId, found.procedureId))).limit(1)
-    if (runModeFor(user.role, !!q) !== 'solo') {
-      return user.role === 'trainee'
-        ? 'A trainee\'s run is always guided.'
-        : 'You are not yet qualified to run this procedure unsupervised; start it guided.'
-    }
+  const startedAt = Date.parse(event.at)
+  if (found.procedureRetiredAt && found.procedureRetiredAt.getTime() <= startedAt) {
+    return 'This procedure was retired before the run started; it can no longer be run.'
+  }
+  if (found.newerAt && found.newerAt.getTime() <= startedAt) {
+    return `Version ${found.newerVersion} of this procedure was published before the run started; start the run again on the current version.`
+  }
+  // Is this person qualified to run this procedure unsupervised?
+  if (event.mode === 'solo' && runModeFor(user.role, qualifiedFor.has(found.procedureId)) !== 'solo') {
+    return user.role === 'trainee'
+      ? 'A trainee\'s run is always guided.'
+      : 'You are not yet qualified to run this procedure unsupervised; start it guided.'
   }
   return null
 }
@@ -509,7 +537,7 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
   }))
   // A run this batch started on a tablet (never a paper run, which is stored on its own route)
   for (const id of runIds) if (known?.has(id)) runs.push({ ...known.get(id)!.run, paper: null })
-  const versions = await loadVersions(shopId, [...new Set(runs.map(r => r.procedureVersionId))], db)
+  const versions = await loadVersionSteps(shopId, [...new Set(runs.map(r => r.procedureVersionId))], db)
   // Read once for the fold and the Ledger both (receivedAt is the Ledger's); runs whose rows
   // the caller knows are not read again.
   const rows: FoldRow[] = toRead.length
@@ -557,5 +585,6 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     else await db.update(tables.runs).set(summary).where(eq(tables.runs.id, run.id))
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
-  await writeRunLedger(db, shopId, folded, arrivedIds, rows, { summaries, peopleIds })
+  // The runs whose rows the caller knows were created in its transaction (freshRows)
+  await writeRunLedger(db, shopId, folded, arrivedIds, rows, { summaries, peopleIds, newRuns: new Set(known?.keys()) })
 }

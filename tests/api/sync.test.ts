@@ -139,6 +139,12 @@ describe('POST /api/sync', () => {
     const big = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: 'a', events: many } })
     expect(big.status).toBe(400)
     expect(big.body.message).toContain('at most 500')
+    // An event that is not an object (a list, a number, null) is named by its place in the list
+    for (const bad of [[], 7, null, 'run.started']) {
+      const one = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: 'a', events: [{ id: 'x' }, bad] } })
+      expect(one.status, JSON.stringify(bad)).toBe(400)
+      expect(one.body.data.issues).toContainEqual(expect.objectContaining({ path: 'events.1', message: 'Each event must be an object.' }))
+    }
   })
 })
 
