@@ -1,4 +1,4 @@
-import { readTranslations } from '#shared/procedures'
+import { storedTitlesIn } from '#shared/procedures'
 
 // The maintenance due list: for every interval (procedure × machine, or × every machine in
 // service when machine_id is null) when it was last done and whether it is due again.
@@ -120,7 +120,7 @@ export async function listDueItems(shopId: number, now = new Date(), lang = 'en'
 
   const out: DueItem[] = []
   for (const i of intervals) {
-    const title = readTranslations(i.translations)[lang]?.title || (i.title ?? `Procedure ${i.procedureId}`)
+    const title = storedTitlesIn(i.translations, lang).procedure(i.title ?? `Procedure ${i.procedureId}`)
     for (const m of machines.filter(m => i.machineId === null || m.id === i.machineId)) {
       const lastDoneAt = lastDone.get(`${m.id}:${i.procedureId}`) ?? null
       const spindleHoursSince = i.everySpindleHours ? await spindleSince(m.id, lastDoneAt) : 0

@@ -1,5 +1,5 @@
 import type { RunEvent } from '#shared/runs'
-import { readTranslations } from '#shared/procedures'
+import { storedTitlesIn } from '#shared/procedures'
 import type { ShopUser } from './authz'
 import type { DB } from './db'
 
@@ -72,8 +72,8 @@ type AlertRun = { procedure: string, translations: Record<string, unknown> | nul
 
 // The procedure's and the step's titles in the owner's language where the version has them.
 function titlesIn(lang: string, run: AlertRun | undefined, step: { key: string, title: string } | undefined) {
-  const t = run ? readTranslations(run.translations)[lang] : undefined
-  return { procedure: (run && (t?.title || run.procedure)) || undefined, step: step && (t?.steps[step.key]?.title || step.title) }
+  const titles = storedTitlesIn(run?.translations, lang)
+  return { procedure: (run && titles.procedure(run.procedure)) || undefined, step: step && titles.step(step.key, step.title) }
 }
 
 type Signoff = Extract<RunEvent, { type: 'signoff.given' }>

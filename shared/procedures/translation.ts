@@ -110,6 +110,18 @@ export function localizeStep(step: ProcedureStep, translations: Translations | n
   return { step: merged as ProcedureStep, coverage: done.length === fields.length ? 'full' : 'partial', lang, draft: !!t.draft }
 }
 
+/**
+ * Titles in `lang` from a version's translations as stored (checked here, readTranslations),
+ * each falling back to the original: the procedure's, and a step's by its key.
+ */
+export function storedTitlesIn(stored: unknown, lang: string) {
+  const t = lang === ORIGINAL_LANGUAGE ? undefined : readTranslations(stored)[lang]
+  return {
+    procedure: (original: string) => t?.title || original,
+    step: (key: string, original: string) => t?.steps[key]?.title || original,
+  }
+}
+
 /** The procedure's title in `lang`, or the original's. */
 export function localizedTitle(version: { title: string, translations?: Translations | null }, lang: string) {
   return (lang !== ORIGINAL_LANGUAGE && version.translations?.[lang]?.title) || version.title

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { MAX_ID } from '#shared/schemas/input'
 import { RUN_STATUSES } from '#shared/rules/enums'
-import { readTranslations } from '#shared/procedures'
+import { storedTitlesIn } from '#shared/procedures'
 
 const QuerySchema = z.object({
   status: z.enum([...RUN_STATUSES, 'all'], { error: 'status must be active, finished, abandoned, withdrawn or all.' }).default('active'),
@@ -40,14 +40,14 @@ export default defineEventHandler(async (event) => {
   for (const s of steps) counts.set(s.versionId, (counts.get(s.versionId) ?? 0) + 1)
   // The procedure's and the step's titles in the reader's language where the version has them
   const lang = callerLanguage(event)
-  const translated = new Map<number, ReturnType<typeof readTranslations>[string] | undefined>()
-  for (const r of rows) if (!translated.has(r.procedureVersionId)) translated.set(r.procedureVersionId, readTranslations(r.translations)[lang])
+  const translated = new Map<number, ReturnType<typeof storedTitlesIn>>()
+  for (const r of rows) if (!translated.has(r.procedureVersionId)) translated.set(r.procedureVersionId, storedTitlesIn(r.translations, lang))
   return rows.map(({ translations: _stored, ...r }) => {
     const step = r.currentStepKey ? byKey.get(`${r.procedureVersionId}:${r.currentStepKey}`) : undefined
-    const t = translated.get(r.procedureVersionId)
+    const titles = translated.get(r.procedureVersionId)!
     return {
-      ...r, procedureTitle: t?.title || r.procedureTitle,
-      currentStepTitle: step ? (t?.steps[step.key]?.title || step.title) : null,
+      ...r, procedureTitle: titles.procedure(r.procedureTitle),
+      currentStepTitle: step ? titles.step(step.key, step.title) : null,
       currentStepNumber: step ? step.position + 1 : null, stepCount: counts.get(r.procedureVersionId) ?? 0,
     }
   })

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import {
-  carryTranslations, localizeStep, localizedTitle, parseProcedure, readTranslations, STARTER_LIBRARY, STARTER_TRANSLATIONS,
+  carryTranslations, localizeStep, localizedTitle, storedTitlesIn, parseProcedure, readTranslations, STARTER_LIBRARY, STARTER_TRANSLATIONS,
   stepTexts, VersionTranslationSchema, type Procedure, type Translations,
 } from '../../../shared/procedures'
 
@@ -45,6 +45,19 @@ describe('localizeStep', () => {
   it('leaves English readers the original', () => {
     expect(localizeStep(hold, tr, 'en').step).toBe(hold)
     expect(localizedTitle({ title: 'Resurface the spoilboard', translations: tr }, 'es')).toBe('Planear la tabla de sacrificio')
+  })
+
+  it('names procedures and steps from translations as stored, the original where one is missing or unreadable', () => {
+    // A stored column as the database returns it: JSON, possibly written by an older version
+    const stored = JSON.parse(JSON.stringify({ es: { title: 'Planear la tabla', steps: { 'isolate-power': { title: 'Corta la corriente' } } } }))
+    const es = storedTitlesIn(stored, 'es')
+    expect(es.procedure('Resurface the spoilboard')).toBe('Planear la tabla')
+    expect(es.step('isolate-power', 'Isolate the power')).toBe('Corta la corriente')
+    expect(es.step('no-such-step', 'Clean up')).toBe('Clean up')
+    expect(storedTitlesIn(stored, 'en').procedure('Resurface the spoilboard')).toBe('Resurface the spoilboard')
+    for (const broken of [null, 'not json', { es: 'not an object' }, { es: { title: 7 } }]) {
+      expect(storedTitlesIn(broken, 'es').procedure('Resurface the spoilboard'), JSON.stringify(broken)).toBe('Resurface the spoilboard')
+    }
   })
 })
 

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { LEDGER_KIND_LABELS, ledgerSummary } from '#shared/schemas/ledger'
 import { isLeadRole } from '#shared/types/roles'
-import { readTranslations } from '#shared/procedures'
+import { storedTitlesIn } from '#shared/procedures'
 
 const ParamsSchema = z.object({ id: z.uuid() })
 
@@ -30,11 +30,9 @@ export default defineEventHandler(async (event) => {
   const lang = callerLanguage(event)
   const [version] = await db.select({ translations: tables.procedureVersions.translations })
     .from(tables.procedureVersions).where(eq(tables.procedureVersions.id, run.procedureVersionId)).limit(1)
-  const translated = readTranslations(version?.translations)[lang]?.steps ?? {}
-  const withTitle = (stepKey: string | null, detail: Record<string, unknown>) => {
-    const title = stepKey ? translated[stepKey]?.title : undefined
-    return title && typeof detail.stepTitle === 'string' ? { ...detail, stepTitle: title } : detail
-  }
+  const titles = storedTitlesIn(version?.translations, lang)
+  const withTitle = (stepKey: string | null, detail: Record<string, unknown>) =>
+    stepKey && typeof detail.stepTitle === 'string' ? { ...detail, stepTitle: titles.step(stepKey, detail.stepTitle) } : detail
   return {
     received,
     entries: rows.map(r => ({
