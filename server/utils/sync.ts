@@ -214,15 +214,19 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   // its run unstorable, is rejected on its own with a reason and the rest go on.
   const stored = new Set<string>()
   if (toInsert.length) {
-    const outcome = await withWriteRetry(() => db.transaction(async (tx) => {
+    const runsToStore = [...new Set(toInsert.map(e => e.runId))]
+    // alone: a batch of one run is first stored without a savepoint of its own (two round trips
+    // fewer, issue 14); if that run cannot be stored whole, the transaction is undone and the
+    // batch stored again the careful way, each run in its savepoint.
+    const store = (alone: boolean) => withWriteRetry(() => db.transaction(async (tx) => {
       // Outcomes are kept per try: a write conflict retried (withWriteRetry) starts them afresh.
       const ok = new Set<string>()
       const refused: SyncRejection[] = []
       // Each seal's nonce, once. Two batches racing with one seal cannot both count it for
       // different events: the seal also names its event, whose id is unique.
       if (nonces.length) await tx.insert(tables.signoffNonces).values(nonces).onDuplicateKeyUpdate({ set: { nonce: sql`nonce` } })
-      for (const runId of new Set(toInsert.map(e => e.runId))) {
-        const one = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId), peopleIds)
+      for (const runId of runsToStore) {
+        const one = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId), peopleIds, alone)
         for (const id of one.stored) ok.add(id)
         refused.push(...one.rejected)
       }
@@ -230,6 +234,14 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       await enqueueSignoffFailedAlerts(tx, user, failedSignoffs.filter(f => ok.has(f.event.id)))
       return { ok, refused }
     }))
+    let outcome: Awaited<ReturnType<typeof store>>
+    try {
+      outcome = await store(runsToStore.length === 1)
+    }
+    catch (error) {
+      if (!(error instanceof StoreAgain)) throw error
+      outcome = await store(false)
+    }
     for (const id of outcome.ok) stored.add(id)
     for (const r of outcome.refused) reject(r.id, r.reason)
   }
@@ -312,7 +324,10 @@ function sizeProblem(sizes: Map<string, { events: number, notes: number }>, even
 // Drizzle's builder spends about 20 ms turning 500 rows into one INSERT, as long as MariaDB takes
 // to store them (issue 14); mysql2's own escaping (format) writes the same statement directly.
 // Times as drizzle writes a timestamp column: UTC, milliseconds kept.
-const sqlTime = (iso: string) => new Date(iso).toISOString().slice(0, -1).replace('T', ' ')
+// A time already in UTC with milliseconds (what tablets send) is cut as it is; any other offset or
+// precision goes through Date.
+const UTC_MS = /^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/
+const sqlTime = (iso: string) => (UTC_MS.test(iso) ? iso : new Date(iso).toISOString()).slice(0, -1).replace('T', ' ')
 function insertEventsSql(shopId: number, events: RunEvent[], json: Map<string, string>, passDuplicates: boolean) {
   const rows = events.map(e => [e.id, shopId, e.runId, e.type, e.actorId, e.deviceId, sqlTime(e.at), json.get(e.id)])
   // These events' rows; with passDuplicates a duplicate id changes nothing, else it refuses the statement
@@ -351,6 +366,11 @@ export type RunSummary = Pick<typeof tables.runs.$inferInsert, 'status' | 'curre
 /** Why a run's new events could not be stored; the message goes back to the tablet. */
 class Unstorable extends Error {}
 
+/** The batch's one run could not be stored whole without a savepoint: undo and store again. */
+class StoreAgain extends Error {}
+
+type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
+
 // Lock waits, deadlocks and a lost connection pass: the batch is tried again later, whole.
 const transient = transientDatabaseError
 
@@ -366,14 +386,15 @@ function unstorableReason(error: unknown) {
  * When the run cannot be stored as a whole, each event is tried alone, in order, so a good
  * event is never held back by a bad one beside it.
  */
-async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[], peopleIds?: ReadonlySet<number>) {
+async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[], peopleIds?: ReadonlySet<number>, alone = false) {
   const stored: string[] = []
   const rejected: SyncRejection[] = []
   // Each event's stored JSON, written once for the INSERT and the fold both
   const json = new Map(events.map(e => [e.id, JSON.stringify(payloadOf(e))]))
-  const attempt = async (batch: RunEvent[]) => {
+  const attempt = async (batch: RunEvent[], withoutSavepoint = false) => {
     const done: RunEvent[] = []
-    await tx.transaction(async (sp) => {
+    const within = (work: (sp: Tx) => Promise<void>) => (withoutSavepoint ? work(tx as unknown as Tx) : tx.transaction(work))
+    await within(async (sp) => {
       const db = sp as unknown as DB
       // The run's row. Another merge of the same new run may have stored it first; then this one
       // adds to it, and the run's rows are read back below rather than assumed.
@@ -444,10 +465,12 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
     stored.push(...done.map(e => e.id))
   }
   try {
-    await attempt(events)
+    await attempt(events, alone)
   }
   catch (error) {
     if (transient(error)) throw error
+    // Without a savepoint what this run wrote before the refusal cannot be undone alone.
+    if (alone) throw new StoreAgain()
     rejected.length = 0
     if (events.length === 1) {
       rejected.push({ id: events[0]!.id, reason: unstorableReason(error) })

@@ -148,6 +148,60 @@ describe('POST /api/sync', () => {
   })
 })
 
+describe('when MariaDB refuses a write', () => {
+  // Triggers of this test's own stand in for a database that refuses one row (a full disk, a
+  // constraint added later); each matches only this test's rows, so other tests are untouched.
+  const trigger = async (name: string, body: string) => {
+    await db().query(`drop trigger if exists ${name}`)
+    await db().query(body)
+  }
+
+  it('rejects only the event it refuses, with a reason, and stores the rest of the run', async () => {
+    const runId = uuidv7()
+    const marker = `refuse ${runId}`
+    await trigger('jogwise_test_refuse_event', `create trigger jogwise_test_refuse_event before insert on run_events for each row
+      if json_value(new.payload, '$.text') = '${marker}' then signal sqlstate '45000' set message_text = 'refused by the test'; end if`)
+    try {
+      const bad = ev(runId, 'operator', 'note.added', 2, { text: marker })
+      const batch = [start(runId, 'operator'), ev(runId, 'operator', 'note.added', 1, { text: 'first' }), bad, ev(runId, 'operator', 'note.added', 3, { text: 'third' })]
+      const res = await sync('operator', batch)
+      expect(res.status, res.text).toBe(200)
+      expect(res.body.rejected).toEqual([{ id: bad.id, reason: expect.stringContaining('the database refused it') }])
+      expect(res.body.rejected[0].reason).not.toContain('refused by the test')
+      expect(res.body.accepted.sort()).toEqual(batch.filter(e => e !== bad).map(e => e.id).sort())
+      expect((await rowsOf(runId)).map((r: any) => r.type).sort()).toEqual(['note.added', 'note.added', 'run.started'])
+    }
+    finally {
+      await db().query('drop trigger if exists jogwise_test_refuse_event')
+    }
+  })
+
+  it('stores nothing of a run that cannot be stored at all, says why for each event, and takes the same run once it can', async () => {
+    const runId = uuidv7()
+    // The run's summary is written after its events: a refusal there undoes the events too.
+    await trigger('jogwise_test_refuse_run', `create trigger jogwise_test_refuse_run before update on runs for each row
+      if new.id = '${runId}' then signal sqlstate '45000' set message_text = 'refused by the test'; end if`)
+    const batch = [start(runId, 'operator'), ev(runId, 'operator', 'note.added', 1, { text: 'kept on the tablet' })]
+    try {
+      const res = await sync('operator', batch)
+      expect(res.status, res.text).toBe(200)
+      expect(res.body.accepted).toEqual([])
+      expect(res.body.rejected.map((r: any) => r.id).sort()).toEqual(batch.map(e => e.id).sort())
+      for (const r of res.body.rejected) expect(r.reason).toContain('stays on this tablet')
+      expect(await rowsOf(runId)).toEqual([])
+      const [runs] = await db().query<any[]>('select id from runs where id = ?', [runId])
+      expect(runs).toEqual([])
+    }
+    finally {
+      await db().query('drop trigger if exists jogwise_test_refuse_run')
+    }
+    // The tablet sends the same events again later: stored whole.
+    const again = await sync('operator', batch)
+    expect(again.body.accepted.sort()).toEqual(batch.map(e => e.id).sort())
+    expect(await rowsOf(runId)).toHaveLength(2)
+  })
+})
+
 describe('withdrawing a run started by mistake', () => {
   it('is stored as withdrawn with no reason while nothing is done, and listed as withdrawn', async () => {
     const runId = uuidv7()
