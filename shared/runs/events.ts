@@ -8,8 +8,8 @@ import { eventInput, MAX_READING, RUN_EVENT_TYPES, RUN_MODES, RunEventError, SIG
 
 export * from './event-kinds'
 
-// zod/mini, as in shared/schemas/input.ts: the Run screen builds its events with these schemas,
-// and the full zod would be most of its script weight (issue 14). Same checks, same messages.
+// zod/mini, as in shared/schemas/input.ts: the Run screen loads these schemas for an event the
+// quick check (event-quick.ts) cannot vouch for, and the full zod would weigh far more (issue 14).
 const str = (label: string, max: number) =>
   z.string({ error: iss => iss.input === undefined ? `${label} is required.` : `${label} must be text.` }).check(
     z.trim(),
