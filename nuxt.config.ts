@@ -142,6 +142,9 @@ export default defineNuxtConfig({
     // The test suite builds into its own folder so a running `npm start` server is untouched.
     ...(process.env.JOGWISE_OUTPUT_DIR && { output: { dir: process.env.JOGWISE_OUTPUT_DIR } }),
   },
+  // JOGWISE_CLIENT_SOURCEMAP=1: hidden client source maps (the scripts are byte for byte the
+  // same), to see which source modules each script's weight comes from (bench/weight-sources.ts).
+  ...(process.env.JOGWISE_CLIENT_SOURCEMAP && { sourcemap: { client: 'hidden' as const } }),
   pwa,
   tailwindcss: { cssPath: false, viewer: false },
 })

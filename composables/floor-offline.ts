@@ -1,4 +1,4 @@
-import { foldRun } from '#shared/runs'
+import { foldRun } from '#shared/runs/fold'
 import type { RunEvent } from '#shared/runs'
 import type { DueItem } from '~~/server/utils/due-list'
 import { readRunSnapshot, withoutServerFields, type RunSnapshot } from './run-snapshots'

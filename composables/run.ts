@@ -1,4 +1,9 @@
-import { foldRun, makeEvent, newRunId, nextAction } from '#shared/runs'
+// Each file on its own, not '#shared/runs': that also brings the zod schemas (events.ts), which
+// the screen loads only when an event needs a message (buildEvent, issue 14).
+import { foldRun } from '#shared/runs/fold'
+import { nextAction } from '#shared/runs/next-action'
+import { newRunId } from '#shared/runs/event-kinds'
+import { buildEvent } from '#shared/runs/event-quick'
 import type { RunEvent, RunEventPayload, RunEventType, RunMode } from '#shared/runs'
 import type { LengthUnit } from '#shared/machining'
 import type { ServerEvent } from '#shared/schemas/sync'
@@ -81,7 +86,7 @@ export function useRun(runId: string) {
     if (!user.value) throw new Error('Sign in first.')
     const id = typeof fixed?.id === 'string' ? fixed.id : undefined
     const at = typeof fixed?.at === 'string' ? fixed.at : undefined
-    const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId(), id, at }, type, ...([payload] as any))
+    const event = await buildEvent({ runId, actorId: user.value.id, deviceId: useDeviceId(), id, at }, type, payload)
     await sync.enqueue(event)
     return event
   }
@@ -96,7 +101,7 @@ export async function startRun(args: { machine: { id: number, name: string, unit
   const runId = newRunId()
   const snapshot: RunSnapshot = { runId, machineId: args.machine.id, machineName: args.machine.name, machineUnits: args.machine.units, version: args.version, serverEvents: [], savedAt: new Date().toISOString() }
   await writeRunSnapshot(snapshot)
-  const event = makeEvent({ runId, actorId: user.value.id, deviceId: useDeviceId() }, 'run.started', {
+  const event = await buildEvent({ runId, actorId: user.value.id, deviceId: useDeviceId() }, 'run.started', {
     procedureVersionId: args.version.id, machineId: args.machine.id, mode: args.mode,
   })
   await useSyncStore().enqueue(event)

@@ -3,19 +3,15 @@ import { LANGUAGE_CODE } from '../rules/language'
 import type { ProcedureStep } from './schema'
 import { STEP_KEY_PATTERN } from './step-key'
 import { plainTextProblem } from './text'
+import { ORIGINAL_LANGUAGE, stepTexts, type StepTextField } from './localize'
+
+export * from './localize'
 
 // A procedure version's translations (issue 16): per language, the version's title and summary
 // and, step by step, the words a person reads. Keys, kinds, ranges, units and signal words are
 // the original's and are never translated. Stored beside the version (procedure_versions.
-// translations); the original never changes. zod/mini: the Run screen reads translations, and
-// the full zod would load with it (issue 14).
-
-/** The language procedures are written in. A shop writing in another language is a later issue. */
-export const ORIGINAL_LANGUAGE = 'en'
-
-/** Every text a step may carry, in reading order. */
-export const STEP_TEXT_FIELDS = ['title', 'body', 'hazard', 'avoid', 'label', 'subject', 'statement', 'guidance'] as const
-export type StepTextField = typeof STEP_TEXT_FIELDS[number]
+// translations); the original never changes. The schemas are zod/mini and the reading of them
+// (localize.ts) is apart, so the Run screen loads no zod for it (issue 14).
 
 // Translations run longer than the English (Spanish by about a quarter), so each limit is
 // half again the original's (shared/procedures/schema.ts).
@@ -80,36 +76,6 @@ export function readTranslations(stored: unknown): Translations {
   return out
 }
 
-/** The texts a step has in the original (empty fields are not asked to be translated). */
-export function stepTexts(step: ProcedureStep): Partial<Record<StepTextField, string>> {
-  const out: Partial<Record<StepTextField, string>> = {}
-  const s = step as Record<string, unknown>
-  for (const f of STEP_TEXT_FIELDS) if (typeof s[f] === 'string' && (s[f] as string).trim()) out[f] = s[f] as string
-  return out
-}
-
-export interface LocalizedStep {
-  step: ProcedureStep
-  /** 'full': every text in the language; 'partial': some fall back to the original; 'none'. */
-  coverage: 'full' | 'partial' | 'none'
-  /** The language of the text shown (the original's when nothing is translated). */
-  lang: string
-  draft: boolean
-}
-
-/** The step as a reader of `lang` sees it: translated texts over the original's. */
-export function localizeStep(step: ProcedureStep, translations: Translations | null | undefined, lang: string): LocalizedStep {
-  if (lang === ORIGINAL_LANGUAGE) return { step, coverage: 'full', lang, draft: false }
-  const t = translations?.[lang]?.steps[step.key]
-  const texts = stepTexts(step)
-  const fields = Object.keys(texts) as StepTextField[]
-  const done = fields.filter(f => t?.[f])
-  if (!t || done.length === 0) return { step, coverage: 'none', lang: ORIGINAL_LANGUAGE, draft: false }
-  const merged = { ...step } as Record<string, unknown>
-  for (const f of done) merged[f] = t[f]
-  return { step: merged as ProcedureStep, coverage: done.length === fields.length ? 'full' : 'partial', lang, draft: !!t.draft }
-}
-
 /**
  * Titles in `lang` from a version's translations as stored (checked here, readTranslations),
  * each falling back to the original: the procedure's, and a step's by its key.
@@ -120,11 +86,6 @@ export function storedTitlesIn(stored: unknown, lang: string) {
     procedure: (original: string) => t?.title || original,
     step: (key: string, original: string) => t?.steps[key]?.title || original,
   }
-}
-
-/** The procedure's title in `lang`, or the original's. */
-export function localizedTitle(version: { title: string, translations?: Translations | null }, lang: string) {
-  return (lang !== ORIGINAL_LANGUAGE && version.translations?.[lang]?.title) || version.title
 }
 
 /**

@@ -1,43 +1,15 @@
 import { z } from 'zod/mini'
-import { v7 as uuidv7 } from 'uuid'
 import { toIssues, type FieldIssue } from '../schemas/issues'
 import { checkedInput, MAX_ID } from '../schemas/input'
 import { LANGUAGE_CODE, LANGUAGE_CODE_MESSAGE } from '../rules/language'
 import { reasonProblem } from '../procedures/text'
-import type { Role } from '../types/roles'
 import { MAX_SEAL_LENGTH } from './signoff-seal'
+import { eventInput, MAX_READING, RUN_EVENT_TYPES, RUN_MODES, RunEventError, SIGNER_ROLES, VERDICT_CODES, type EventContext, type RunEventType } from './event-kinds'
 
-// A run is an append-only log of these events. They are made on the tablet (often offline),
-// written to IndexedDB first, synced later and merged by the server, so each one carries its
-// own UUIDv7 id, the run's id, the device's clock time, who did it and on which device.
+export * from './event-kinds'
 
-export const RUN_MODES = ['guided', 'solo'] as const
-export type RunMode = typeof RUN_MODES[number]
-
-/** Roles whose signature counts as a sign-off and who may override a hold (brief: Trainer, Owner). */
-export const SIGNER_ROLES = ['trainer', 'owner'] as const satisfies readonly Role[]
-export type SignerRole = typeof SIGNER_ROLES[number]
-
-export const RUN_EVENT_TYPES = [
-  'run.started',
-  'step.done',
-  'hold.acknowledged',
-  'value.recorded',
-  'note.added',
-  'photo.attached',
-  'plan.attached',
-  'hold.overridden',
-  'signoff.given',
-  'event.undone',
-  'run.finished',
-  'run.abandoned',
-  'run.handed-over',
-  'run.withdrawn',
-] as const
-export type RunEventType = typeof RUN_EVENT_TYPES[number]
-
-// zod/mini, as in shared/schemas/input.ts: the Run screen builds its events with these schemas,
-// and the full zod would be most of its script weight (issue 14). Same checks, same messages.
+// zod/mini, as in shared/schemas/input.ts: the Run screen loads these schemas for an event the
+// quick check (event-quick.ts) cannot vouch for, and the full zod would weigh far more (issue 14).
 const str = (label: string, max: number) =>
   z.string({ error: iss => iss.input === undefined ? `${label} is required.` : `${label} must be text.` }).check(
     z.trim(),
@@ -57,19 +29,12 @@ const reason = (label: string) => str(label, 1000).check(z.superRefine((value, c
 
 const stepKey = str('Step key', 60)
 
-// Written by the server only, when it merges the event (a tablet's own value is replaced):
-// a sign-off whose signature was checked, or an event kept on the record but not counted
-// (a wrong PIN, a person not on the run). The fold flags a refused event with its code.
-export const VERDICT_CODES = ['signoff-failed', 'actor-not-allowed'] as const
+// Written by the server only (event-kinds.ts).
 export const VerdictSchema = z.discriminatedUnion('status', [
   z.object({ status: z.literal('verified') }),
   z.object({ status: z.literal('refused'), code: z.enum(VERDICT_CODES), reason: z.string().check(z.maxLength(1000)) }),
 ], { error: 'A verdict is set by the server only.' })
 export type Verdict = z.infer<typeof VerdictSchema>
-
-// No gauge, meter or hour counter at the machine reads beyond this; the bound keeps sums
-// and unit conversions of readings (spindle time, thickness) far from overflowing.
-export const MAX_READING = 1_000_000_000
 
 const base = {
   id: z.uuidv7({ error: 'Event id must be a UUIDv7 string made on the device.' }),
@@ -222,31 +187,6 @@ export function parseRunEvent(input: unknown): RunEventResult {
   return parsed.success ? { ok: true, event: parsed.data } : { ok: false, issues: toIssues(parsed.error) }
 }
 
-/** Thrown by makeEvent: the message names the first field and reason, `issues` has them all. */
-export class RunEventError extends Error {
-  constructor(readonly issues: FieldIssue[]) {
-    const first = issues[0]
-    super(first ? (first.path ? `${first.path}: ${first.message}` : first.message) : 'Invalid run event.')
-    this.name = 'RunEventError'
-  }
-}
-
-/** A new event id. UUIDv7 sorts by creation time, which breaks ties between equal clock times. */
-export const newEventId = (): string => uuidv7()
-
-/** A new run id, made on the tablet so a run can start offline. */
-export const newRunId = (): string => uuidv7()
-
-export interface EventContext {
-  runId: string
-  actorId: number
-  deviceId: string
-  /** Defaults to now on this device's clock. */
-  at?: Date | string
-  /** Defaults to a new UUIDv7. */
-  id?: string
-}
-
 type PayloadArgs<T extends RunEventType> = Record<string, never> extends RunEventPayload<T>
   ? [payload?: RunEventPayload<T>]
   : [payload: RunEventPayload<T>]
@@ -257,16 +197,7 @@ type PayloadArgs<T extends RunEventType> = Record<string, never> extends RunEven
  * Throws RunEventError naming the field when the payload is wrong.
  */
 export function makeEvent<T extends RunEventType>(ctx: EventContext, type: T, ...args: PayloadArgs<T>): RunEventOf<T> {
-  const at = ctx.at === undefined ? new Date().toISOString() : typeof ctx.at === 'string' ? ctx.at : ctx.at.toISOString()
-  const parsed = checkedRunEvent.safeParse({
-    ...(args[0] ?? {}),
-    id: ctx.id ?? newEventId(),
-    runId: ctx.runId,
-    at,
-    actorId: ctx.actorId,
-    deviceId: ctx.deviceId,
-    type,
-  })
+  const parsed = checkedRunEvent.safeParse(eventInput(ctx, type, args[0]))
   if (!parsed.success) throw new RunEventError(toIssues(parsed.error))
   return parsed.data as RunEventOf<T>
 }

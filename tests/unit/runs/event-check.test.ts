@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { parseRunEvent, RUN_EVENT_TYPES } from '../../../shared/runs/events'
-import { checkRunEvent, quickRunEvent } from '../../../shared/runs/event-check'
+import { makeEvent, parseRunEvent, RUN_EVENT_TYPES, RunEventError } from '../../../shared/runs/events'
+import { checkRunEvent, CONFIRMED_TYPES } from '../../../shared/runs/event-check'
+import { buildEvent, QUICK_TYPES, quickRunEvent } from '../../../shared/runs/event-quick'
 
 // The quick check must be the zod schema's exact twin on every event it vouches for, and defer
 // to it on everything else. The schema itself (shared/runs/events.ts) is the reference here:
@@ -125,5 +126,37 @@ describe('quickRunEvent', () => {
     expect(quickRunEvent({ ...wellFormed('step.done'), verdict: { status: 'verified' } })).toBeUndefined()
     expect(quickRunEvent({ ...wellFormed('value.recorded'), reason: '' })).toBeUndefined()
     expect(quickRunEvent(Object.assign(Object.create(null), wellFormed('step.done')))).toBeUndefined()
+  })
+
+  it('matches the schemas in every type it covers: the tablet, which has no zod to confirm it, uses them all', () => {
+    expect([...CONFIRMED_TYPES.keys()]).toStrictEqual([...QUICK_TYPES.keys()])
+    expect(CONFIRMED_TYPES.size).toBe(11)
+  })
+})
+
+describe('buildEvent', () => {
+  const ctx = { runId: RUN, actorId: 5, deviceId: 'tablet-front', id: ID, at: '2025-03-01T08:15:00.000Z' }
+
+  it('makes the event makeEvent makes, by the quick check or by the schema', async () => {
+    for (const type of RUN_EVENT_TYPES) {
+      const payload = fields[type] as any
+      expect(JSON.stringify(await buildEvent(ctx, type, payload))).toBe(JSON.stringify(makeEvent(ctx, type, payload)))
+    }
+    // Spaces around a reading's reason: the schema trims it.
+    const spaced = await buildEvent(ctx, 'value.recorded', { stepKey: 'board-thickness', value: 18.4, unit: 'mm', reason: '  swelled  ' })
+    expect(spaced.reason).toBe('swelled')
+  })
+
+  it('refuses a wrong payload with the schema\'s field and reason', async () => {
+    const wrong = buildEvent(ctx, 'value.recorded', { stepKey: 'board-thickness', value: 2e9, unit: 'mm' })
+    await expect(wrong).rejects.toBeInstanceOf(RunEventError)
+    await expect(wrong).rejects.toThrow('value: Value must be at most 1000000000.')
+    await expect(buildEvent(ctx, 'step.done', { stepKey: ' ' })).rejects.toThrow('stepKey: Step key is required.')
+  })
+
+  it('fills the id and the time when the caller gives none', async () => {
+    const made = await buildEvent({ runId: RUN, actorId: 5, deviceId: 'tablet-front' }, 'step.done', { stepKey: 'clear-bed' })
+    expect(made.id).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-7/)
+    expect(Math.abs(Date.parse(made.at) - Date.now())).toBeLessThan(60_000)
   })
 })
