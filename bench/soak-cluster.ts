@@ -58,7 +58,7 @@ async function startApp(app: App, seed: boolean) {
   while (Date.now() < until) {
     try {
       const res = await fetch(`${app.base}/api/health`, { signal: AbortSignal.timeout(2000) })
-      if (res.ok && (await res.json()).shops > 0 && app.child.exitCode === null) return
+      if (res.ok && (await res.json()).ready === true && app.child.exitCode === null) return
     }
     catch {}
     await sleep(200)
