@@ -13,7 +13,8 @@ export function duplicateKey(error: unknown, index?: string) {
   return false
 }
 
-const TRANSIENT_CODES = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT'])
+// A savepoint gone: the whole transaction was rolled back underneath (write-retry.ts).
+const TRANSIENT_CODES = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT', 'ER_SP_DOES_NOT_EXIST'])
 
 /** A lock wait, a deadlock or a lost connection: the same request may well succeed later. */
 export function transientDatabaseError(error: unknown) {

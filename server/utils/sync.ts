@@ -387,7 +387,10 @@ const transient = transientDatabaseError
 
 function unstorableReason(error: unknown) {
   if (error instanceof Unstorable) return error.message
-  // Never MariaDB's own words (they may quote other rows); the event stays on the tablet.
+  // Never MariaDB's own words to the tablet (they may quote other rows); the server's log has
+  // them, for whoever looks after the database. The event stays on the tablet.
+  const cause = (error as { cause?: { code?: unknown, message?: unknown } })?.cause ?? error as { code?: unknown, message?: unknown }
+  console.error(`[jogwise] sync: the database refused an event: ${String(cause?.code ?? '')} ${String(cause?.message ?? error).slice(0, 300)}`)
   return 'The server could not store this event (the database refused it); it stays on this tablet with this note.'
 }
 

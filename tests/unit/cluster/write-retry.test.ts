@@ -12,6 +12,10 @@ describe('withWriteRetry', () => {
   it('recognises a deadlock, also under drizzle\'s wrapper, and nothing else', () => {
     expect(isWriteConflict(deadlock())).toBe(true)
     expect(isWriteConflict(wrapped(deadlock()))).toBe(true)
+    // After a brute-force abort the transaction's savepoints are gone with it: the next
+    // ROLLBACK TO SAVEPOINT answers 1305 (MariaDB error codes, ER_SP_DOES_NOT_EXIST; seen in
+    // npm run soak:cluster in place of the deadlock)
+    expect(isWriteConflict(wrapped(Object.assign(new Error('SAVEPOINT sp1 does not exist'), { errno: 1305, code: 'ER_SP_DOES_NOT_EXIST' })))).toBe(true)
     expect(isWriteConflict(Object.assign(new Error('Duplicate entry'), { errno: 1062, code: 'ER_DUP_ENTRY' }))).toBe(false)
     expect(isWriteConflict(new Error('plain'))).toBe(false)
     expect(isWriteConflict(undefined)).toBe(false)
