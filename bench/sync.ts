@@ -4,6 +4,7 @@
 // Each side first does a few batches that are not timed: a server that has just started spends
 // its first seconds compiling its hot code (V8's optimizing compiler works on other threads), which
 // a shop's server, running for days, does not; the plain INSERTs get the same warm-up.
+// JOGWISE_BENCH_WARMUP=0 times the first batches too.
 import { readFileSync } from 'node:fs'
 import mysql from 'mysql2/promise'
 import { v7 as uuidv7 } from 'uuid'
@@ -11,7 +12,7 @@ import { v7 as uuidv7 } from 'uuid'
 const BASE = process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3150'
 const TOTAL = 20_000
 const BATCH = 500
-const WARMUP = 5
+const WARMUP = Number(process.env.JOGWISE_BENCH_WARMUP ?? 5)
 
 async function json(path: string, init: RequestInit & { cookie?: string } = {}) {
   const res = await fetch(BASE + path, { ...init, headers: { 'content-type': 'application/json', ...(init.cookie ? { cookie: init.cookie } : {}) } })
