@@ -1,4 +1,5 @@
 import { defineConfig, devices } from '@playwright/test'
+import { CHROMIUM } from './tests/support/chromium'
 
 // Playwright drives Debian's Chromium (Playwright's own browser download cannot run here)
 // against the built server that scripts/test.sh starts on BASE_URL.
@@ -16,10 +17,7 @@ export default defineConfig({
     ...devices['Desktop Chrome'],
     viewport: { width: 1024, height: 768 },
     hasTouch: true,
-    launchOptions: {
-      executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium',
-      args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-quic', '--no-first-run'],
-    },
+    launchOptions: CHROMIUM,
     screenshot: 'only-on-failure',
   },
 })

@@ -6,11 +6,10 @@
 // Run: npm run bench:offline
 import { chromium, type Page } from '@playwright/test'
 import { hydrated, signInForOffline, startProcedure } from '../tests/e2e/helpers'
+import { CHROMIUM } from '../tests/support/chromium'
 
 const BASE = process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3150'
 const ROUNDS = 15
-// The flags of playwright.config.ts
-const ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-quic', '--no-first-run']
 
 async function reloadMs(page: Page) {
   const t0 = performance.now()
@@ -22,7 +21,7 @@ async function reloadMs(page: Page) {
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!
 
-const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium', args: ARGS })
+const browser = await chromium.launch(CHROMIUM)
 try {
   const context = await browser.newContext({ baseURL: BASE, viewport: { width: 1024, height: 768 }, hasTouch: true })
   const page = await context.newPage()

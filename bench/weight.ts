@@ -9,13 +9,12 @@ import { gzipSync } from 'node:zlib'
 import { chromium, type Browser } from '@playwright/test'
 import { v7 as uuidv7 } from 'uuid'
 import { DEMO, DEMO_PASSWORD } from '../tests/demo'
+import { CHROMIUM } from '../tests/support/chromium'
 
 const BASE = process.env.JOGWISE_BASE_URL || 'http://127.0.0.1:3150'
 const BARE_PORT = Number(process.env.JOGWISE_BENCH_BARE_PORT || Number(new URL(BASE).port) + 1)
 const ROOT = resolve(import.meta.dirname, '..')
 const BARE_OUT = resolve(ROOT, '.data/bare-nuxt-output')
-// The flags of playwright.config.ts
-const ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-quic', '--no-first-run']
 
 function buildBare() {
   const built = spawnSync('npx', ['nuxt', 'build', 'tests/fixtures/bare-nuxt'], {
@@ -76,7 +75,7 @@ try {
   const synced = await sync.json() as any
   if (!sync.ok || synced.accepted.length !== 1) throw new Error(`run start: ${sync.status} ${JSON.stringify(synced)}`)
 
-  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium', args: ARGS })
+  const browser = await chromium.launch(CHROMIUM)
   const bareWeight = await scriptWeight(browser, `http://127.0.0.1:${BARE_PORT}/`)
   const runWeight = await scriptWeight(browser, `${BASE}/runs/${runId}`, setCookies.map(c => ({ name: c.split('=')[0]!, value: c.slice(c.indexOf('=') + 1) })))
   await browser.close()
