@@ -1,7 +1,5 @@
 import type { ShopUser } from './authz'
-import type { DB } from './db'
-
-type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
+import type { DB, Tx } from './db'
 
 /**
  * Appends one line to the shop's audit record (who changed people, roles and machines). Pass the

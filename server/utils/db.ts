@@ -42,6 +42,8 @@ export function useDB() {
 }
 
 export type DB = ReturnType<typeof useDB>
+/** What db.transaction hands its callback (a savepoint's too). */
+export type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
 
 export async function closeDB() {
   await pool?.end()

@@ -1,12 +1,10 @@
 import nodemailer from 'nodemailer'
 import type { Transporter } from 'nodemailer'
-import type { DB } from './db'
+import type { DB, Tx } from './db'
 
 // Every e-mail goes through the mail_outbox table: the code that causes a mail only inserts a
 // row (in its own transaction, so the mail exists exactly when what caused it does), and the
 // worker in server/plugins/mail-outbox.ts sends it over SMTP with retries.
-
-type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
 
 export interface MailInput {
   shopId: number | null

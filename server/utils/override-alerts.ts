@@ -1,9 +1,8 @@
 import type { RunEvent } from '#shared/runs'
 import { storedTitlesIn } from '#shared/procedures'
 import type { ShopUser } from './authz'
-import type { DB } from './db'
+import type { Tx } from './db'
 
-type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
 type Override = Extract<RunEvent, { type: 'hold.overridden' }>
 
 /**

@@ -1,8 +1,6 @@
 import { carryTranslations, parseProcedure, readTranslations, STARTER_LIBRARY, STARTER_TRANSLATIONS, stepFromRow, stepToRow } from '#shared/procedures'
 import type { Procedure, ProcedureStep, Translations } from '#shared/procedures'
-import type { DB } from './db'
-
-type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
+import type { DB, Tx } from './db'
 
 export interface VersionWithSteps {
   id: number

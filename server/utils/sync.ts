@@ -8,6 +8,7 @@ import { isLeadRole, runModeFor } from '#shared/types/roles'
 import { isBelievableTime, unbelievableTime } from '#shared/rules/clock'
 import type { ShopUser } from './authz'
 import type { FoldedRun } from './ledger-write'
+import type { Tx } from './db'
 
 // The server side of offline sync. Each event is checked on its own (one bad event never sinks
 // the batch), the good ones are stored in one transaction, ids make replays harmless, and the
@@ -380,8 +381,6 @@ class Unstorable extends Error {}
 /** The batch's one run could not be stored whole without a savepoint: undo and store again. */
 class StoreAgain extends Error {}
 
-type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
-
 // Lock waits, deadlocks and a lost connection pass: the batch is tried again later, whole.
 const transient = transientDatabaseError
 
@@ -469,8 +468,8 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         }
       }
       if (!done.length) return
-      // A run this batch starts, stored in one statement, is folded from these events as stored
-      // instead of being read back (issue 14), when freshRows finds it holds just those rows.
+      // A run this transaction created, its events stored by one plain INSERT, is folded from
+      // these events as stored instead of being read back (issue 14, freshRows).
       const known = newRun && created && plain ? await freshRows(db, newRun, done, json) : undefined
       await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known, peopleIds)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
