@@ -64,7 +64,6 @@ const storedColumns = {
  * sign-offs count against the signer's sign-off throttle from there.
  */
 export async function mergeSync(user: ShopUser, request: SyncRequest, address = 'unknown'): Promise<SyncResponse> {
-  const db = useDB()
   const rejected: SyncRejection[] = []
   const reject = (id: unknown, reason: string) => rejected.push({ id: typeof id === 'string' ? id : String(id ?? ''), reason })
 
@@ -96,12 +95,41 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     candidates.push({ event })
   }
 
+  // Steps 2 to 5, first trusting that the events of a run this batch starts are new (below); if
+  // that turns out wrong nothing was stored, and they are done again with every id looked up.
+  // Not for a batch with a sign-off: its seal is opened once (a wrong PIN counts once).
+  const trustNewRuns = !candidates.some(c => c.event.type === 'signoff.given')
+  try {
+    return await mergeChecked(user, request, address, candidates, [...rejected], trustNewRuns)
+  }
+  catch (error) {
+    if (!(error instanceof LookUpFirst)) throw error
+    // The only change steps 2 to 5 make to an event, but for a sign-off's seal, is its verdict
+    for (const c of candidates) delete c.event.verdict
+    return mergeChecked(user, request, address, candidates, [...rejected], false)
+  }
+}
+
+/**
+ * Steps 2 to 5 of mergeSync. `trustNewRuns`: the ids of events whose run this batch starts are
+ * not looked up. While that run is not stored, none of its events can be (an event is stored
+ * only with its run), so such an id is already stored only under another run, which the run's
+ * plain INSERT finds (a duplicate key): then LookUpFirst undoes everything and the caller
+ * comes back without trusting. Looking up 500 ids was a tenth of a long run's merge (issue 14).
+ */
+async function mergeChecked(user: ShopUser, request: SyncRequest, address: string, candidates: { event: RunEvent }[], rejected: SyncRejection[], trustNewRuns: boolean): Promise<SyncResponse> {
+  const db = useDB()
+  const reject = (id: unknown, reason: string) => rejected.push({ id: typeof id === 'string' ? id : String(id ?? ''), reason })
   // 2.–3. What is already stored: these ids (the same event again is accepted as a replay,
   // another one is not), the runs they belong to, this shop's people and what this person may
-  // run solo. The four reads do not depend on each other and go out at once on the pool's
+  // run solo. The reads do not depend on each other and go out at once on the pool's
   // connections (one after another they were a fifth of the merge's time, issue 14).
-  const ids = candidates.map(c => c.event.id)
   const runIds = [...new Set(candidates.map(c => c.event.runId))]
+  const startedHere = new Set(trustNewRuns ? candidates.filter(c => c.event.type === 'run.started').map(c => c.event.runId) : [])
+  const ids = candidates.filter(c => !startedHere.has(c.event.runId)).map(c => c.event.id)
+  // The runs the tablet watches besides these: only this shop's are read back (step 5).
+  const batchRuns = new Set(runIds)
+  const watchOnly = [...new Set(request.watch ?? [])].filter(id => !batchRuns.has(id))
   // A run's start is checked (machine, version, mode) alongside, for the few starts a batch holds;
   // the answer is used only when the run turns out not to be stored yet.
   const starts = candidates.map(c => c.event).filter((e): e is Extract<RunEvent, { type: 'run.started' }> => e.type === 'run.started')
@@ -112,11 +140,9 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     const solo = qualificationRows.then(rows => new Set(rows.map(q => q.procedureId)))
     for (const e of starts) startChecks.set(e.id, solo.then(q => checkRunStart(user, e, q)))
   }
-  const [existing, runRows, people, qualifications] = await Promise.all([
-    // Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14).
-    ids.length
-      ? selectRows<{ id: string, runId: string, shopId: number }>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
-      : [],
+  const [existing, runRows, people, qualifications, watchedRows] = await Promise.all([
+    // The events stored already
+    ids.length ? storedIds(db, ids) : [] as StoredId[],
     // The runs these events belong to, with their procedure
     runIds.length
       ? db.select({
@@ -132,10 +158,17 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     }).from(tables.users).where(eq(tables.users.shopId, user.shopId)),
     // The procedures this person may run solo
     qualificationRows,
+    // Which of the other watched runs are this shop's
+    watchOnly.length
+      ? selectRows<{ id: string }>(db, 'select id from runs where shop_id = ? and id in (?)', [user.shopId, watchOnly])
+      : [],
     ...startChecks.values(),
   ])
-  const existingById = new Map(existing.map(e => [e.id, e]))
   const runsById = new Map(runRows.map(r => [r.id, r]))
+  // A run this batch starts that is stored already (the batch sent again): its ids are looked up after all.
+  const startedStored = candidates.filter(c => startedHere.has(c.event.runId) && runsById.has(c.event.runId)).map(c => c.event.id)
+  if (startedStored.length) existing.push(...await storedIds(db, startedStored))
+  const existingById = new Map(existing.map(e => [e.id, e]))
   const personById = new Map(people.map(p => [p.id, p]))
   // The Ledger names people of this shop only (ledger-write.ts): read here once, not again per run
   const peopleIds = new Set(people.map(p => p.id))
@@ -225,6 +258,8 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
   // once its row is stored (or the same id already was); one MariaDB refuses, or one that makes
   // its run unstorable, is rejected on its own with a reason and the rest go on.
   const stored = new Set<string>()
+  // The sequence numbers of rows this batch stored, where the INSERT returned them
+  const storedSeq = new Map<string, number>()
   if (toInsert.length) {
     const runsToStore = [...new Set(toInsert.map(e => e.runId))]
     // alone: a batch of one run is first stored without a savepoint of its own (two round trips
@@ -233,18 +268,21 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
     const store = (alone: boolean) => withWriteRetry(() => db.transaction(async (tx) => {
       // Outcomes are kept per try: a write conflict retried (withWriteRetry) starts them afresh.
       const ok = new Set<string>()
+      const seqs = new Map<string, number>()
       const refused: SyncRejection[] = []
       // Each seal's nonce, once. Two batches racing with one seal cannot both count it for
       // different events: the seal also names its event, whose id is unique.
       if (nonces.length) await tx.insert(tables.signoffNonces).values(nonces).onDuplicateKeyUpdate({ set: { nonce: sql`nonce` } })
       for (const runId of runsToStore) {
-        const one = await storeRunEvents(tx as unknown as DB, user, newRuns.get(runId), toInsert.filter(e => e.runId === runId), peopleIds, alone)
+        const newRun = newRuns.get(runId)
+        const one = await storeRunEvents(tx as unknown as DB, user, newRun, toInsert.filter(e => e.runId === runId), peopleIds, alone, !!newRun && startedHere.has(runId))
         for (const id of one.stored) ok.add(id)
+        for (const [id, seq] of one.seqs) seqs.set(id, seq)
         refused.push(...one.rejected)
       }
       // The override's alert also goes out for stored sign-offs whose signature failed its check
       await enqueueSignoffFailedAlerts(tx, user, failedSignoffs.filter(f => ok.has(f.event.id)))
-      return { ok, refused }
+      return { ok, seqs, refused }
     }))
     let outcome: Awaited<ReturnType<typeof store>>
     try {
@@ -255,46 +293,69 @@ export async function mergeSync(user: ShopUser, request: SyncRequest, address = 
       outcome = await store(false)
     }
     for (const id of outcome.ok) stored.add(id)
+    for (const [id, seq] of outcome.seqs) storedSeq.set(id, seq)
     for (const r of outcome.refused) reject(r.id, r.reason)
   }
-  const storedOrKnown = accepted.filter(id => stored.has(id) || !toInsert.some(e => e.id === id))
+  const inserted = new Set(toInsert.map(e => e.id))
+  const storedOrKnown = accepted.filter(id => stored.has(id) || !inserted.has(id))
   accepted.length = 0
   accepted.push(...storedOrKnown)
 
   // 5. What the tablet does not have yet of the runs it sent or watches.
-  const sentIds = new Set(request.events.map(e => e.id))
-  const watched = [...new Set([...runIds, ...(request.watch ?? [])])]
+  // Only this shop's runs: those of the batch stored before or now, and the watched ones found above
+  const storedRuns = new Set(toInsert.filter(e => stored.has(e.id)).map(e => e.runId))
+  const watched = [
+    ...runIds.filter(id => runsById.get(id)?.shopId === user.shopId || (newRuns.has(id) && storedRuns.has(id))),
+    ...watchedRows.map(r => r.id),
+  ]
   let cursor = request.since ?? 0
   const events: ServerEvent[] = []
   if (watched.length) {
-    const own = [...sentIds].filter((id): id is string => typeof id === 'string')
+    // The tablet's own events come back only when the server added its verdict to them. Those
+    // this batch stored without one are known by their sequence numbers (stepped over in the
+    // index, their rows never read); the others by id, their stored JSON looked into.
+    const ownSeqs = toInsert.filter(e => !e.verdict && storedSeq.has(e.id)).map(e => storedSeq.get(e.id)!)
+    const bySeq = new Set(toInsert.filter(e => !e.verdict && storedSeq.has(e.id)).map(e => e.id))
+    const own = request.events.map(e => e.id).filter((id): id is string => typeof id === 'string' && !bySeq.has(id))
     const since = request.since ?? 0
     // One statement, so the cursor and the rows come from the same snapshot: the newest of these
-    // runs' events (the cursor), beside the rows themselves, but the tablet's own events only
-    // when the server added its verdict to them (not read back at all otherwise). The derived
-    // table gives one row even when no event is new. Escaped by mysql2 (issue 14).
-    const newer = (t: string) => mysql.format(`${t}.shop_id = ? and ${t}.run_id in (?) and ${t}.seq > ?`, [user.shopId, watched, since])
+    // runs' events (the cursor), beside the rows themselves. The derived table gives one row even
+    // when no event is new. Escaped by mysql2 (issue 14). The run index is named: left to itself
+    // MariaDB filtered by the shop's whole (shop, time) index, some 20 ms at 45,000 events.
+    const newer = (t: string) => mysql.format(`${t}.run_id in (?) and ${t}.seq > ?`, [watched, since])
+    const mine = [
+      mysql.format(' and r.shop_id = ?', [user.shopId]),
+      ownSeqs.length ? mysql.format(' and r.seq not in (?)', [ownSeqs]) : '',
+      own.length ? mysql.format(' and (r.id not in (?) or json_exists(r.payload, \'$.verdict\'))', [own]) : '',
+    ].join('')
     type Row = { top: number | null, seq: number, id: string | null, runId: string, type: string, actorId: number, deviceId: string, at: string, payload: unknown, flag: string | null }
     const [rows] = await db.execute(sql.raw(`select latest.top, r.seq, r.id, r.run_id as runId, r.type, r.actor_id as actorId, r.device_id as deviceId, r.at, r.payload, r.flag
-      from (select max(n.seq) as top from run_events n where ${newer('n')}) latest
-      left join run_events r on ${newer('r')}${own.length ? mysql.format(' and (r.id not in (?) or json_exists(r.payload, \'$.verdict\'))', [own]) : ''}
+      from (select max(n.seq) as top from run_events n force index (run_events_run_idx) where ${newer('n')}) latest
+      left join run_events r force index (run_events_run_idx) on ${newer('r')}${mine}
       order by r.seq`)) as unknown as [Row[]]
     cursor = Math.max(cursor, Number(rows[0]?.top ?? 0))
     for (const row of rows) {
       if (row.id === null) continue
       // As drizzle reads them: a timestamp comes as UTC text, the JSON column as text
       const payload = (typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload) as Record<string, unknown>
-      events.push(toServerEvent({ seq: row.seq, id: row.id, runId: row.runId, type: row.type, actorId: row.actorId, deviceId: row.deviceId, at: new Date(`${row.at}+0000`), payload, flag: row.flag }))
+      events.push(toServerEvent({ seq: row.seq, id: row.id, runId: row.runId, type: row.type, actorId: row.actorId, deviceId: row.deviceId, at: utcText(row.at), payload, flag: row.flag }))
     }
   }
   return { accepted, rejected, events, cursor }
 }
+
+/** A timestamp as drizzle's connection reads it: UTC text, 'YYYY-MM-DD HH:MM:SS.mmm'. */
+const utcText = (text: string) => new Date(`${text}+0000`)
 
 /** Rows of one read written with mysql2's own escaping (values as mysql2 returns them). */
 async function selectRows<T>(db: DB, statement: string, values: Parameters<typeof mysql.format>[1]): Promise<T[]> {
   const [rows] = await db.execute(sql.raw(mysql.format(statement, values))) as unknown as [T[]]
   return rows
 }
+
+type StoredId = { id: string, runId: string, shopId: number }
+/** Which of these event ids are stored, and where. Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14). */
+const storedIds = (db: DB, ids: string[]) => selectRows<StoredId>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
 
 /** Was this seal nonce stored with an earlier sign-off? */
 async function usedNonce(nonce: string) {
@@ -343,27 +404,28 @@ const sqlTime = (iso: string) => (UTC_MS.test(iso) ? iso : new Date(iso).toISOSt
 function insertEventsSql(shopId: number, events: RunEvent[], json: Map<string, string>, passDuplicates: boolean) {
   const rows = events.map(e => [e.id, shopId, e.runId, e.type, e.actorId, e.deviceId, sqlTime(e.at), json.get(e.id)])
   // These events' rows; with passDuplicates a duplicate id changes nothing, else it refuses the statement
-  return mysql.format(`insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ?${passDuplicates ? ' on duplicate key update id = id' : ''}`, [rows])
+  // The plain form returns each row's sequence number and arrival time (MariaDB's RETURNING)
+  return mysql.format(`insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ?${passDuplicates ? ' on duplicate key update id = id' : ' returning id, seq, received_at as receivedAt'}`, [rows])
 }
+
+/** What the plain INSERT returned of each row it stored (insertEventsSql). */
+type Returned = Map<string, { seq: number, receivedAt: Date }>
 
 /**
  * The rows of a run this batch starts, as a read would return them (the same JSON round trip
  * and millisecond time as insertEventsSql, no flag yet). Called only when this transaction
  * created the run's row and one plain INSERT (no duplicate passed over) stored every event:
  * the run is invisible to every other merge until this one commits, so it holds exactly these
- * rows, all with that statement's received_at, read back from one of them (issue 14: counting
- * the run's rows again cost a tenth of the merge).
- * The fold's events are made here too, once, as toRunEvent would make them from those rows.
+ * rows, with the arrival times that INSERT returned (issue 14: reading the run's rows back cost
+ * a tenth of the merge). The fold's events are made here too, once, as toRunEvent would make
+ * them from those rows. Undefined when the INSERT did not return every row.
  */
-async function freshRows(db: DB, run: typeof tables.runs.$inferInsert, events: RunEvent[], json: Map<string, string>): Promise<Map<string, KnownRun> | undefined> {
-  const e = tables.runEvents
-  // When the statement stored them (the column's default, the database's clock)
-  const [held] = await db.select({ receivedAt: e.receivedAt }).from(e).where(eq(e.id, events[0]!.id)).limit(1)
-  const receivedAt = held?.receivedAt
-  if (!(receivedAt instanceof Date) || Number.isNaN(receivedAt.getTime())) return undefined
+function freshRows(run: typeof tables.runs.$inferInsert, events: RunEvent[], json: Map<string, string>, returned: Returned): Map<string, KnownRun> | undefined {
   const rows: FoldRow[] = []
   const folded: RunEvent[] = []
   for (const ev of events) {
+    const receivedAt = returned.get(ev.id)?.receivedAt
+    if (!receivedAt || Number.isNaN(receivedAt.getTime())) return undefined
     const payload = JSON.parse(json.get(ev.id)!) as Record<string, unknown>
     const row: FoldRow = { id: ev.id, runId: ev.runId, type: ev.type, actorId: ev.actorId, deviceId: ev.deviceId, at: new Date(ev.at), payload, flag: null, receivedAt }
     rows.push(row)
@@ -380,6 +442,9 @@ class Unstorable extends Error {}
 
 /** The batch's one run could not be stored whole without a savepoint: undo and store again. */
 class StoreAgain extends Error {}
+
+/** A run trusted to be new (mergeChecked's trustNewRuns) was not stored as one: undo, look every id up, merge again. */
+class LookUpFirst extends Error {}
 
 // Lock waits, deadlocks and a lost connection pass: the batch is tried again later, whole.
 const transient = transientDatabaseError
@@ -399,13 +464,18 @@ function unstorableReason(error: unknown) {
  * When the run cannot be stored as a whole, each event is tried alone, in order, so a good
  * event is never held back by a bad one beside it.
  */
-async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[], peopleIds?: ReadonlySet<number>, alone = false) {
+// unchecked: the run is new to this batch and its events' ids were not looked up
+// (mergeChecked's trustNewRuns): they are stored by one plain INSERT with the run's new row, or
+// LookUpFirst undoes the transaction.
+async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs.$inferInsert | undefined, events: RunEvent[], peopleIds?: ReadonlySet<number>, alone = false, unchecked = false) {
   const stored: string[] = []
+  const seqs = new Map<string, number>()
   const rejected: SyncRejection[] = []
   // Each event's stored JSON, written once for the INSERT and the fold both
   const json = new Map(events.map(e => [e.id, JSON.stringify(payloadOf(e))]))
   const attempt = async (batch: RunEvent[], withoutSavepoint = false) => {
     const done: RunEvent[] = []
+    let returned: Returned | undefined
     const within = (work: (sp: Tx) => Promise<void>) => (withoutSavepoint ? work(tx as unknown as Tx) : tx.transaction(work))
     await within(async (sp) => {
       const db = sp as unknown as DB
@@ -419,6 +489,8 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         }
         catch (error) {
           if (!duplicateKey(error)) throw error
+          // Another merge stored this run first: its events may be stored already.
+          if (unchecked) throw new LookUpFirst()
         }
       }
       const rowOf = (e: RunEvent) => ({
@@ -434,19 +506,20 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       // above), so the plain INSERT is tried first: when it goes through, every row is new. A
       // duplicate id (the same event sent twice at once) refuses it; the second form passes over it.
       let together = false
-      let plain = false
-      if (batch.length > 1) {
+      if (batch.length > 1 || unchecked) {
         for (const passDuplicates of created ? [false, true] : [true]) {
           try {
             // These events' rows
-            await db.execute(sql.raw(insertEventsSql(user.shopId, batch, json, passDuplicates)))
+            const [rows] = await db.execute(sql.raw(insertEventsSql(user.shopId, batch, json, passDuplicates))) as unknown as [unknown]
             done.push(...batch)
             together = true
-            plain = !passDuplicates
+            if (!passDuplicates && Array.isArray(rows)) returned = new Map((rows as { id: string, seq: number, receivedAt: string }[]).map(r => [r.id, { seq: Number(r.seq), receivedAt: utcText(r.receivedAt) }]))
             break
           }
           catch (error) {
             if (transient(error)) throw error
+            // An id stored already (another run's), or a row MariaDB refuses: the careful way
+            if (unchecked) throw new LookUpFirst()
             if (!passDuplicates && duplicateKey(error)) continue
             break
           }
@@ -470,24 +543,27 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       if (!done.length) return
       // A run this transaction created, its events stored by one plain INSERT, is folded from
       // these events as stored instead of being read back (issue 14, freshRows).
-      const known = newRun && created && plain ? await freshRows(db, newRun, done, json) : undefined
+      const known = newRun && created && returned ? freshRows(newRun, done, json, returned) : undefined
       await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known, peopleIds)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
     })
     stored.push(...done.map(e => e.id))
+    if (returned) for (const [id, r] of returned) seqs.set(id, r.seq)
   }
   try {
     await attempt(events, alone)
   }
   catch (error) {
     if (transient(error)) throw error
+    // A run trusted new that could not be stored whole: the batch again, every id looked up
+    if (unchecked || error instanceof LookUpFirst) throw error instanceof LookUpFirst ? error : new LookUpFirst()
     // Without a savepoint what this run wrote before the refusal cannot be undone alone.
     if (alone) throw new StoreAgain()
     rejected.length = 0
     if (events.length === 1) {
       rejected.push({ id: events[0]!.id, reason: unstorableReason(error) })
-      return { stored, rejected }
+      return { stored, seqs, rejected }
     }
     for (const e of events) {
       try { await attempt([e]) }
@@ -497,7 +573,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       }
     }
   }
-  return { stored, rejected }
+  return { stored, seqs, rejected }
 }
 
 /**

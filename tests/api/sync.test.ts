@@ -131,6 +131,54 @@ describe('POST /api/sync', () => {
     expect(full.body.run.currentStepKey).toBe('work')
   })
 
+  it('refuses an event whose id another run already holds, and stores the rest of the new run', async () => {
+    const first = uuidv7()
+    const taken = ev(first, 'operator', 'step.done', 1, { stepKey: 'prep' })
+    await sync('operator', [start(first, 'operator'), taken])
+    // A new run whose batch reuses that id: the run and its other events are stored
+    const runId = uuidv7()
+    const good = [start(runId, 'operator', 'guided', 10), ev(runId, 'operator', 'note.added', 11, { text: 'Dust shoe fitted.' })]
+    const clash = { ...ev(runId, 'operator', 'step.done', 12, { stepKey: 'prep' }), id: taken.id }
+    const res = await sync('operator', [...good, clash])
+    expect(res.body.rejected).toEqual([{ id: taken.id, reason: 'That event id is already used by another event.' }])
+    expect(res.body.accepted.sort()).toEqual(good.map(e => e.id).sort())
+    expect((await rowsOf(runId)).map(r => r.id)).toEqual(good.map(e => e.id).sort())
+    // The first run still holds its own event, unchanged
+    const firstRows = await rowsOf(first)
+    expect(firstRows.find(r => r.id === taken.id)).toMatchObject({ type: 'step.done' })
+    const [[run]] = await db().query<any[]>('select current_step_key from runs where id = ?', [runId])
+    expect(run.current_step_key).toBe('prep')
+  })
+
+  it('stores a new run once when two tablets send it at the same moment', async () => {
+    const runId = uuidv7()
+    const batch = [start(runId, 'operator'), ev(runId, 'operator', 'step.done', 1, { stepKey: 'prep' }), ev(runId, 'operator', 'note.added', 2, { text: 'Spindle warmed up.' })]
+    const answers = await Promise.all([sync('operator', batch), sync('operator', batch), sync('operator', batch)])
+    for (const a of answers) {
+      expect(a.body.rejected).toEqual([])
+      expect(a.body.accepted.sort()).toEqual(batch.map(e => e.id).sort())
+    }
+    expect((await rowsOf(runId)).map(r => r.id)).toEqual(batch.map(e => e.id).sort())
+    const [[run]] = await db().query<any[]>('select status, current_step_key from runs where id = ?', [runId])
+    expect(run).toMatchObject({ status: 'active', current_step_key: 'isolate' })
+  })
+
+  it('gives a new run\'s cursor as its newest stored event, and nothing of another shop\'s watched run', async () => {
+    const other = await otherShop()
+    await db().query('insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) select ?, ?, ?, \'note.added\', started_by, \'x\', now(3), \'{"text":"Not yours."}\' from runs where id = ?', [uuidv7(), other.shopId, other.runId, other.runId])
+    const runId = uuidv7()
+    const batch = [start(runId, 'operator'), ev(runId, 'operator', 'note.added', 1, { text: 'Chips cleared.' })]
+    const res = await sync('operator', batch, { since: 0, watch: [other.runId] })
+    expect(res.body.accepted).toHaveLength(2)
+    // The tablet's own events are not sent back to it; the other shop's never are
+    expect(res.body.events).toEqual([])
+    const [[top]] = await db().query<any[]>('select max(seq) as seq from run_events where run_id = ?', [runId])
+    expect(res.body.cursor).toBe(top.seq)
+    // Watching only the other shop's run moves nothing
+    const only = await sync('operator', [], { since: 0, watch: [other.runId] })
+    expect(only.body).toMatchObject({ events: [], cursor: 0 })
+  })
+
   it('answers 400 naming the field for a malformed body, and refuses more than 500 events', async () => {
     const res = await call('POST', '/api/sync', { cookie: await as('operator'), body: { deviceId: '', events: 'none' } })
     expect(res.status).toBe(400)
