@@ -137,8 +137,9 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   // (one promise: a drizzle query runs again each time it is awaited)
   const qualificationRows = db.select({ procedureId: tables.qualifications.procedureId }).from(tables.qualifications).where(eq(tables.qualifications.userId, user.id)).execute()
   if (starts.length <= 3) {
+    // (the start's own read goes out at once; only its last check waits for the qualifications)
     const solo = qualificationRows.then(rows => new Set(rows.map(q => q.procedureId)))
-    for (const e of starts) startChecks.set(e.id, solo.then(q => checkRunStart(user, e, q)))
+    for (const e of starts) startChecks.set(e.id, checkRunStart(user, e, solo))
   }
   const [existing, runRows, people, qualifications, watchedRows] = await Promise.all([
     // The events stored already
@@ -312,8 +313,8 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   const events: ServerEvent[] = []
   if (watched.length) {
     // The tablet's own events come back only when the server added its verdict to them. Those
-    // this batch stored without one are known by their sequence numbers (stepped over in the
-    // index, their rows never read); the others by id, their stored JSON looked into.
+    // this batch stored without one are known by their sequence numbers (ranges of the index
+    // stepped over, their rows never read); the others by id, their stored JSON looked into.
     const ownSeqs = toInsert.filter(e => !e.verdict && storedSeq.has(e.id)).map(e => storedSeq.get(e.id)!)
     const bySeq = new Set(toInsert.filter(e => !e.verdict && storedSeq.has(e.id)).map(e => e.id))
     const own = request.events.map(e => e.id).filter((id): id is string => typeof id === 'string' && !bySeq.has(id))
@@ -325,7 +326,7 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
     const newer = (t: string) => mysql.format(`${t}.run_id in (?) and ${t}.seq > ?`, [watched, since])
     const mine = [
       mysql.format(' and r.shop_id = ?', [user.shopId]),
-      ownSeqs.length ? mysql.format(' and r.seq not in (?)', [ownSeqs]) : '',
+      seqsLeftOut(ownSeqs),
       own.length ? mysql.format(' and (r.id not in (?) or json_exists(r.payload, \'$.verdict\'))', [own]) : '',
     ].join('')
     type Row = { top: number | null, seq: number, id: string | null, runId: string, type: string, actorId: number, deviceId: string, at: string, payload: unknown, flag: string | null }
@@ -584,7 +585,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
  * or on a retired procedure, is refused, unless the tablet started it (its own clock) before
  * the newer version was published or the procedure retired: it was offline and could not know.
  */
-async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>, qualifiedFor: ReadonlySet<number>): Promise<string | null> {
+async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>, qualifiedFor: ReadonlySet<number> | Promise<ReadonlySet<number>>): Promise<string | null> {
   const db = useDB()
   const m = tables.machines
   const v = tables.procedureVersions
@@ -612,7 +613,7 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
     return `Version ${found.newerVersion} of this procedure was published before the run started; start the run again on the current version.`
   }
   // Is this person qualified to run this procedure unsupervised?
-  if (event.mode === 'solo' && runModeFor(user.role, qualifiedFor.has(found.procedureId)) !== 'solo') {
+  if (event.mode === 'solo' && runModeFor(user.role, (await qualifiedFor).has(found.procedureId)) !== 'solo') {
     return user.role === 'trainee'
       ? 'A trainee\'s run is always guided.'
       : 'You are not yet qualified to run this procedure unsupervised; start it guided.'
