@@ -5,6 +5,8 @@ export default defineNitroPlugin(() => {
   sessionHooks.hook('clear', async (_data, event) => {
     const session = await getUserSession(event)
     if (session.id && session.user) await revokeSession(session.id)
+    // This server's opened copy goes too (the revocation alone already refuses it)
+    forgetOpenedSession(event)
   })
   sessionHooks.hook('fetch', async (session, event) => {
     if (session.user) await requireShopUser(event)

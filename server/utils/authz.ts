@@ -9,7 +9,10 @@ export interface ShopUser { id: number, shopId: number, name: string, email: str
  */
 export async function requireShopUser(event: H3Event): Promise<ShopUser> {
   if (event.context.shopUser) return event.context.shopUser as ShopUser
+  // The cookie is opened once a minute at most (session-cache.ts)
+  const opened = !reuseOpenedSession(event)
   const session = await getUserSession(event)
+  if (opened) keepOpenedSession(event)
   if (!session.user) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in first.' })
   // The person, and whether this cookie is a copy from before a sign-out (session-revocation.ts),
   // in one statement: every API request asks both (issue 14).
@@ -22,10 +25,12 @@ export async function requireShopUser(event: H3Event): Promise<ShopUser> {
     .leftJoin(revoked, eq(revoked.sessionId, revokedKey(session.id)))
     .where(eq(tables.users.id, session.user.id)).limit(1)
   if (row?.revokedUntil && row.revokedUntil.getTime() > Date.now()) {
+    forgetOpenedSession(event)
     await clearUserSession(event)
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'This sign-in has ended. Sign in again.' })
   }
   if (!row || !row.active) {
+    forgetOpenedSession(event)
     await clearUserSession(event)
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'This sign-in is no longer valid. Sign in again.' })
   }
