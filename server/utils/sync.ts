@@ -2,7 +2,7 @@ import mysql from 'mysql2'
 import { alias } from 'drizzle-orm/mysql-core'
 import { foldRun } from '#shared/runs'
 import { checkRunEvent } from '#shared/runs/event-check'
-import type { RunEvent } from '#shared/runs'
+import type { RunEvent, RunState } from '#shared/runs'
 import type { ServerEvent, SyncRejection, SyncRequest, SyncResponse } from '#shared/schemas/sync'
 import { isLeadRole, runModeFor } from '#shared/types/roles'
 import { isBelievableTime, unbelievableTime } from '#shared/rules/clock'
@@ -21,7 +21,7 @@ interface StoredRow { seq: number, id: string, runId: string, type: string, acto
 /** A stored event as the fold and the Ledger read it. */
 type FoldRow = Omit<StoredRow, 'seq'> & { receivedAt: Date }
 /** A run this transaction created, whose stored events the caller already has (freshRows): the rows and, in the same order, the fold's events. */
-interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[], events: RunEvent[] }
+interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[], events: RunEvent[], state?: RunState }
 
 /**
  * `{ ...payload, ...envelope }` (a key of both keeps the payload's place, the envelope's value),
@@ -414,25 +414,39 @@ type Returned = Map<string, { seq: number, receivedAt: Date }>
 
 /**
  * The rows of a run this batch starts, as a read would return them (the same JSON round trip
- * and millisecond time as insertEventsSql, no flag yet). Called only when this transaction
- * created the run's row and one plain INSERT (no duplicate passed over) stored every event:
- * the run is invisible to every other merge until this one commits, so it holds exactly these
- * rows, with the arrival times that INSERT returned (issue 14: reading the run's rows back cost
- * a tenth of the merge). The fold's events are made here too, once, as toRunEvent would make
- * them from those rows. Undefined when the INSERT did not return every row.
+ * and millisecond time as insertEventsSql, no flag yet), its fold's events as toRunEvent would
+ * make them from those rows, and the fold itself: made while MariaDB stores the rows. Used only
+ * when this transaction created the run's row and one plain INSERT (no duplicate passed over)
+ * stored every event: the run is invisible to every other merge until this one commits, so it
+ * holds exactly these rows (issue 14: reading the run's rows back cost a tenth of the merge).
+ * Their arrival times come from that INSERT (arrived).
  */
-function freshRows(run: typeof tables.runs.$inferInsert, events: RunEvent[], json: Map<string, string>, returned: Returned): Map<string, KnownRun> | undefined {
+async function foldAhead(shopId: number, run: typeof tables.runs.$inferInsert, events: RunEvent[], json: Map<string, string>): Promise<KnownRun> {
+  // (from memory but for a version this server has not folded yet, read outside this
+  // transaction: a version's steps never change)
+  const steps = (await loadVersionSteps(shopId, [run.procedureVersionId])).get(run.procedureVersionId)?.steps
   const rows: FoldRow[] = []
   const folded: RunEvent[] = []
   for (const ev of events) {
-    const receivedAt = returned.get(ev.id)?.receivedAt
-    if (!receivedAt || Number.isNaN(receivedAt.getTime())) return undefined
     const payload = JSON.parse(json.get(ev.id)!) as Record<string, unknown>
-    const row: FoldRow = { id: ev.id, runId: ev.runId, type: ev.type, actorId: ev.actorId, deviceId: ev.deviceId, at: new Date(ev.at), payload, flag: null, receivedAt }
+    const row: FoldRow = { id: ev.id, runId: ev.runId, type: ev.type, actorId: ev.actorId, deviceId: ev.deviceId, at: new Date(ev.at), payload, flag: null, receivedAt: new Date(Number.NaN) }
     rows.push(row)
     folded.push(toRunEvent(row))
   }
-  return new Map([[run.id, { run: { id: run.id, machineId: run.machineId, procedureVersionId: run.procedureVersionId }, rows, events: folded }]])
+  return {
+    run: { id: run.id, machineId: run.machineId, procedureVersionId: run.procedureVersionId },
+    rows, events: folded, state: steps ? foldRun(steps, folded) : undefined,
+  }
+}
+
+/** foldAhead's run with each row's arrival time as the INSERT returned it; undefined when it did not return every row. */
+function arrived(ahead: KnownRun, returned: Returned): Map<string, KnownRun> | undefined {
+  for (const row of ahead.rows) {
+    const receivedAt = returned.get(row.id)?.receivedAt
+    if (!receivedAt || Number.isNaN(receivedAt.getTime())) return undefined
+    row.receivedAt = receivedAt
+  }
+  return new Map([[ahead.run.id, ahead]])
 }
 
 /** What refoldRuns writes back to a run's row. */
@@ -477,6 +491,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
   const attempt = async (batch: RunEvent[], withoutSavepoint = false) => {
     const done: RunEvent[] = []
     let returned: Returned | undefined
+    let ahead: KnownRun | undefined
     const within = (work: (sp: Tx) => Promise<void>) => (withoutSavepoint ? work(tx as unknown as Tx) : tx.transaction(work))
     await within(async (sp) => {
       const db = sp as unknown as DB
@@ -511,7 +526,13 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
         for (const passDuplicates of created ? [false, true] : [true]) {
           try {
             // These events' rows
-            const [rows] = await db.execute(sql.raw(insertEventsSql(user.shopId, batch, json, passDuplicates))) as unknown as [unknown]
+            const statement = db.execute(sql.raw(insertEventsSql(user.shopId, batch, json, passDuplicates))) as unknown as Promise<[unknown]>
+            // While MariaDB stores a new run's rows, the run is folded from the same events (issue 14)
+            if (newRun && created && !passDuplicates) {
+              statement.catch(() => {}) // (awaited below; this only keeps it from counting as unhandled meanwhile)
+              ahead = await foldAhead(user.shopId, newRun, batch, json)
+            }
+            const [rows] = await statement
             done.push(...batch)
             together = true
             if (!passDuplicates && Array.isArray(rows)) returned = new Map((rows as { id: string, seq: number, receivedAt: string }[]).map(r => [r.id, { seq: Number(r.seq), receivedAt: utcText(r.receivedAt) }]))
@@ -544,7 +565,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       if (!done.length) return
       // A run this transaction created, its events stored by one plain INSERT, is folded from
       // these events as stored instead of being read back (issue 14, freshRows).
-      const known = newRun && created && returned ? freshRows(newRun, done, json, returned) : undefined
+      const known = ahead && returned ? arrived(ahead, returned) : undefined
       await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known, peopleIds)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
       await enqueueOverrideAlerts(sp, user, done.filter(e => e.verdict?.status !== 'refused'))
@@ -671,7 +692,8 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     const stored = byRun.get(run.id) ?? []
     // No roles passed: overrides and sign-offs were authorized when they were merged, and a
     // later role change must not turn yesterday's valid override into a flagged one.
-    const state = foldRun(steps, known?.get(run.id)?.events ?? stored.map(toRunEvent))
+    // (folded ahead from the same steps when the caller knows the run, foldAhead)
+    const state = known?.get(run.id)?.state ?? foldRun(steps, known?.get(run.id)?.events ?? stored.map(toRunEvent))
     refuseUnstorableNumbers(state)
     const procedureId = versions.get(run.procedureVersionId)?.procedureId
     if (procedureId !== undefined) folded.push({ run, procedureId, state, steps })
