@@ -42,6 +42,9 @@ export function useDB() {
 }
 
 export type DB = ReturnType<typeof useDB>
+
+/** A timestamp as a raw read on drizzle's connection returns it: UTC text, 'YYYY-MM-DD HH:MM:SS.mmm' (drizzle reads its own columns the same way). */
+export const utcTimestamp = (text: string) => new Date(`${text}+0000`)
 /** What db.transaction hands its callback (a savepoint's too). */
 export type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
 

@@ -4,7 +4,7 @@ import { foldRun } from '#shared/runs'
 import { checkRunEvent } from '#shared/runs/event-check'
 import type { RunEvent, RunState } from '#shared/runs'
 import type { ServerEvent, SyncRejection, SyncRequest, SyncResponse } from '#shared/schemas/sync'
-import { isLeadRole, runModeFor } from '#shared/types/roles'
+import { isLeadRole, runModeFor, type Role } from '#shared/types/roles'
 import { isBelievableTime, unbelievableTime } from '#shared/rules/clock'
 import type { ShopUser } from './authz'
 import type { FoldedRun } from './ledger-write'
@@ -134,8 +134,9 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   // the answer is used only when the run turns out not to be stored yet.
   const starts = candidates.map(c => c.event).filter((e): e is Extract<RunEvent, { type: 'run.started' }> => e.type === 'run.started')
   const startChecks = new Map<string, Promise<string | null>>()
-  // (one promise: a drizzle query runs again each time it is awaited)
-  const qualificationRows = db.select({ procedureId: tables.qualifications.procedureId }).from(tables.qualifications).where(eq(tables.qualifications.userId, user.id)).execute()
+  // The reads of every batch are written with mysql2's escaping: drizzle's builder took longer to
+  // write them than MariaDB to answer them (issue 14).
+  const qualificationRows = selectRows<{ procedureId: number }>(db, 'select procedure_id as procedureId from qualifications where user_id = ?', [user.id])
   if (starts.length <= 3) {
     // (the start's own read goes out at once; only its last check waits for the qualifications)
     const solo = qualificationRows.then(rows => new Set(rows.map(q => q.procedureId)))
@@ -146,17 +147,13 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
     ids.length ? storedIds(db, ids) : [] as StoredId[],
     // The runs these events belong to, with their procedure
     runIds.length
-      ? db.select({
-        id: tables.runs.id, shopId: tables.runs.shopId, procedureVersionId: tables.runs.procedureVersionId,
-        startedBy: tables.runs.startedBy, mode: tables.runs.mode, procedureId: tables.procedureVersions.procedureId,
-      }).from(tables.runs).innerJoin(tables.procedureVersions, eq(tables.procedureVersions.id, tables.runs.procedureVersionId))
-        .where(inArray(tables.runs.id, runIds))
+      ? selectRows<{ id: string, shopId: number, procedureVersionId: number, startedBy: number, mode: 'guided' | 'solo', procedureId: number }>(db,
+          `select r.id, r.shop_id as shopId, r.procedure_version_id as procedureVersionId, r.started_by as startedBy, r.mode, v.procedure_id as procedureId
+           from runs r join procedure_versions v on v.id = r.procedure_version_id where r.id in (?)`, [runIds])
       : [],
-    // This shop's people
-    db.select({
-      id: tables.users.id, name: tables.users.name, role: tables.users.role, active: tables.users.active,
-      pinHash: tables.users.pinHash, passwordHash: tables.users.passwordHash,
-    }).from(tables.users).where(eq(tables.users.shopId, user.shopId)),
+    // This shop's people (active is 1 or 0 here)
+    selectRows<{ id: number, name: string, role: Role, active: number, pinHash: string | null, passwordHash: string }>(db,
+      'select id, name, role, active, pin_hash as pinHash, password_hash as passwordHash from users where shop_id = ?', [user.shopId]),
     // The procedures this person may run solo
     qualificationRows,
     // Which of the other watched runs are this shop's
@@ -170,7 +167,7 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   const startedStored = candidates.filter(c => startedHere.has(c.event.runId) && runsById.has(c.event.runId)).map(c => c.event.id)
   if (startedStored.length) existing.push(...await storedIds(db, startedStored))
   const existingById = new Map(existing.map(e => [e.id, e]))
-  const personById = new Map(people.map(p => [p.id, p]))
+  const personById = new Map(people.map(p => [p.id, { ...p, active: p.active === 1 }]))
   // The Ledger names people of this shop only (ledger-write.ts): read here once, not again per run
   const peopleIds = new Set(people.map(p => p.id))
   const qualifiedFor = new Set(qualifications.map(q => q.procedureId))
@@ -339,14 +336,11 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
       if (row.id === null) continue
       // As drizzle reads them: a timestamp comes as UTC text, the JSON column as text
       const payload = (typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload) as Record<string, unknown>
-      events.push(toServerEvent({ seq: row.seq, id: row.id, runId: row.runId, type: row.type, actorId: row.actorId, deviceId: row.deviceId, at: utcText(row.at), payload, flag: row.flag }))
+      events.push(toServerEvent({ seq: row.seq, id: row.id, runId: row.runId, type: row.type, actorId: row.actorId, deviceId: row.deviceId, at: utcTimestamp(row.at), payload, flag: row.flag }))
     }
   }
   return { accepted, rejected, events, cursor }
 }
-
-/** A timestamp as drizzle's connection reads it: UTC text, 'YYYY-MM-DD HH:MM:SS.mmm'. */
-const utcText = (text: string) => new Date(`${text}+0000`)
 
 /** Rows of one read written with mysql2's own escaping (values as mysql2 returns them). */
 async function selectRows<T>(db: DB, statement: string, values: Parameters<typeof mysql.format>[1]): Promise<T[]> {
@@ -535,7 +529,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
             const [rows] = await statement
             done.push(...batch)
             together = true
-            if (!passDuplicates && Array.isArray(rows)) returned = new Map((rows as { id: string, seq: number, receivedAt: string }[]).map(r => [r.id, { seq: Number(r.seq), receivedAt: utcText(r.receivedAt) }]))
+            if (!passDuplicates && Array.isArray(rows)) returned = new Map((rows as { id: string, seq: number, receivedAt: string }[]).map(r => [r.id, { seq: Number(r.seq), receivedAt: utcTimestamp(r.receivedAt) }]))
             break
           }
           catch (error) {
