@@ -9,7 +9,7 @@ export const RESOURCE_KEYS = {
   procedures: 'procedures',
   procedure: (id: string | number) => `procedure-${id}`,
   tools: 'tools',
-  me: ME_KEY,
+  me: 'me',
   crew: 'crew',
   qualifications: 'qualifications',
   signers: 'signers',
@@ -35,6 +35,8 @@ export const forgetProcedures = (id?: string | number) =>
   clearNuxtData(id === undefined ? [RESOURCE_KEYS.procedures] : [RESOURCE_KEYS.procedures, RESOURCE_KEYS.procedure(id)])
 
 export const useTools = () => useFetch('/api/tools', { key: RESOURCE_KEYS.tools, default: () => [] })
+/** The signed-in person with their preferences (units). */
+export const useMe = () => useFetch('/api/me', { key: RESOURCE_KEYS.me })
 /** The shop's people (owner and trainer). */
 export const useCrew = () => useFetch('/api/users', { key: RESOURCE_KEYS.crew, default: () => [] })
 export const useQualifications = () => useFetch('/api/qualifications', { key: RESOURCE_KEYS.qualifications, default: () => [] })
