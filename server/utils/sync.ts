@@ -1,5 +1,4 @@
 import mysql from 'mysql2'
-import { alias } from 'drizzle-orm/mysql-core'
 import { foldRun } from '#shared/runs'
 import { checkRunEvent } from '#shared/runs/event-check'
 import type { RunEvent, RunState } from '#shared/runs'
@@ -494,7 +493,11 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       let created = false
       if (newRun) {
         try {
-          await db.insert(tables.runs).values(newRun)
+          // (mysql2's escaping: drizzle's builder took longer to write it than MariaDB to store it)
+          await db.execute(sql.raw(mysql.format(
+            'insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, ?)',
+            [newRun.id, newRun.shopId, newRun.machineId, newRun.procedureVersionId, newRun.startedBy, newRun.mode, sqlTime(newRun.startedAt.toISOString())],
+          )))
           created = true
         }
         catch (error) {
@@ -601,30 +604,27 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
  * the newer version was published or the procedure retired: it was offline and could not know.
  */
 async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>, qualifiedFor: ReadonlySet<number> | Promise<ReadonlySet<number>>): Promise<string | null> {
-  const db = useDB()
-  const m = tables.machines
-  const v = tables.procedureVersions
-  const newer = alias(tables.procedureVersions, 'newer')
   // The machine, in this shop, with the version (in this shop), its procedure and the first
-  // version published after it, if any: one statement (issue 14). Without a newer version the
-  // left join gives one row of nulls; with some, the earliest comes first.
-  const [found] = await db.select({
-    retiredAt: m.retiredAt, procedureId: v.procedureId, procedureRetiredAt: tables.procedures.retiredAt,
-    newerVersion: newer.version, newerAt: newer.createdAt,
-  }).from(m)
-    .leftJoin(v, and(eq(v.id, event.procedureVersionId), eq(v.shopId, user.shopId)))
-    .leftJoin(tables.procedures, eq(tables.procedures.id, v.procedureId))
-    .leftJoin(newer, and(eq(newer.procedureId, v.procedureId), gt(newer.id, event.procedureVersionId)))
-    .where(and(eq(m.id, event.machineId), eq(m.shopId, user.shopId)))
-    .orderBy(asc(newer.createdAt)).limit(1)
+  // version published after it, if any: one statement (issue 14), written with mysql2's escaping
+  // (drizzle's builder took longer to write it than MariaDB to answer). Without a newer version
+  // the left join gives one row of nulls; with some, the earliest comes first.
+  type Row = { retiredAt: string | null, procedureId: number | null, procedureRetiredAt: string | null, newerVersion: number | null, newerAt: string | null }
+  const [found] = await selectRows<Row>(useDB(), `select m.retired_at as retiredAt, v.procedure_id as procedureId, p.retired_at as procedureRetiredAt,
+      newer.version as newerVersion, newer.created_at as newerAt
+    from machines m
+      left join procedure_versions v on v.id = ? and v.shop_id = ?
+      left join procedures p on p.id = v.procedure_id
+      left join procedure_versions newer on newer.procedure_id = v.procedure_id and newer.id > ?
+    where m.id = ? and m.shop_id = ?
+    order by newer.created_at limit 1`, [event.procedureVersionId, user.shopId, event.procedureVersionId, event.machineId, user.shopId])
   if (!found) return 'No such machine in this shop.'
   if (found.retiredAt) return 'That machine is retired.'
   if (found.procedureId === null) return 'No such procedure version in this shop.'
   const startedAt = Date.parse(event.at)
-  if (found.procedureRetiredAt && found.procedureRetiredAt.getTime() <= startedAt) {
+  if (found.procedureRetiredAt && utcTimestamp(found.procedureRetiredAt).getTime() <= startedAt) {
     return 'This procedure was retired before the run started; it can no longer be run.'
   }
-  if (found.newerAt && found.newerAt.getTime() <= startedAt) {
+  if (found.newerAt && utcTimestamp(found.newerAt).getTime() <= startedAt) {
     return `Version ${found.newerVersion} of this procedure was published before the run started; start the run again on the current version.`
   }
   // Is this person qualified to run this procedure unsupervised?

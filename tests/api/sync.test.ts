@@ -96,6 +96,40 @@ describe('POST /api/sync', () => {
     }
   })
 
+  it('checks a run\'s start against the machine, the version and the procedure, each in this shop', async () => {
+    const other = await otherShop()
+    const shopId = (await db().query<any[]>('select shop_id from machines where id = ?', [machineId]))[0][0].shop_id
+    const [retired] = await db().query<any>(
+      'insert into machines (shop_id, name, travel_x_mm, travel_y_mm, travel_z_mm, units, spindle_kind, has_length_sensor, spoilboard_material, spoilboard_nominal_mm, spoilboard_min_mm, retired_at) values (?,?,?,?,?,?,?,?,?,?,?,now(3))',
+      [shopId, 'Retired Sync Router', 600, 600, 100, 'mm', 'trim-router', 0, 'MDF', 18, 12],
+    )
+    const cases: [Record<string, unknown>, string][] = [
+      [{ machineId: other.machineId }, 'No such machine in this shop.'],
+      [{ machineId: retired.insertId }, 'That machine is retired.'],
+      [{ procedureVersionId: other.versionId }, 'No such procedure version in this shop.'],
+    ]
+    for (const [change, reason] of cases) {
+      const runId = uuidv7()
+      const e = { ...start(runId, 'operator'), ...change }
+      const res = await sync('operator', [e])
+      expect(res.body.rejected, reason).toEqual([{ id: e.id, reason }])
+      expect((await db().query<any[]>('select id from runs where id = ?', [runId]))[0]).toEqual([])
+    }
+  })
+
+  it('refuses a start after its procedure was retired, and takes one a tablet made before', async () => {
+    const made = await call('POST', '/api/procedures', { cookie: await as('owner'), body: { procedure: { ...PROCEDURE, title: 'Sync retire check' } } })
+    const [[version]] = await db().query<any[]>('select procedure_id from procedure_versions where id = ?', [made.body.versionId])
+    // Retired at 08:30 on the day the events claim
+    await db().query('update procedures set retired_at = ? where id = ?', [new Date(at(30)), version.procedure_id])
+    const before = uuidv7()
+    const early = ev(before, 'operator', 'run.started', 10, { procedureVersionId: made.body.versionId, machineId, mode: 'guided' })
+    const after = uuidv7()
+    const late = ev(after, 'operator', 'run.started', 40, { procedureVersionId: made.body.versionId, machineId, mode: 'guided' })
+    expect((await sync('operator', [early])).body.accepted).toEqual([early.id])
+    expect((await sync('operator', [late])).body.rejected).toEqual([{ id: late.id, reason: 'This procedure was retired before the run started; it can no longer be run.' }])
+  })
+
   it('answers "No such run" for another shop\'s run', async () => {
     const other = await otherShop()
     const e = ev(other.runId, 'owner', 'step.done', 1, { stepKey: 'prep' })
