@@ -2,20 +2,14 @@ import { describe, expect, it } from 'vitest'
 import { makeEvent, parseRunEvent, RUN_EVENT_TYPES, RunEventError } from '../../../shared/runs/events'
 import { checkRunEvent, CONFIRMED_TYPES } from '../../../shared/runs/event-check'
 import { buildEvent, QUICK_TYPES, quickRunEvent } from '../../../shared/runs/event-quick'
+import { seededRandom } from '../../support/seeded-random'
 
 // The quick check must be the zod schema's exact twin on every event it vouches for, and defer
 // to it on everything else. The schema itself (shared/runs/events.ts) is the reference here:
 // thousands of events drawn with a fixed seed, well-formed and damaged, are put through both.
 
-// mulberry32, a small seeded generator, so every run draws the same events.
-function random(seed: number) {
-  return () => {
-    seed = (seed + 0x6D2B79F5) | 0
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed)
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
+// A seeded generator, so every run draws the same cases
+const random = seededRandom
 
 const ID = '01950a6e-1c00-7000-8000-000000000001'
 const RUN = '01950a6e-1c00-7000-8000-0000000000a0'

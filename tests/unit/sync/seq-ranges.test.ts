@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { seqsLeftOut } from '../../../server/utils/seq-ranges'
+import { seededRandom } from '../../support/seeded-random'
 
 // The read-back's "leave out these rows" must leave out exactly the batch's own sequence numbers:
 // one number too many would hide another tablet's event from this tablet for good.
@@ -13,15 +14,8 @@ function leftOut(sql: string): Set<number> {
   return out
 }
 
-// A fixed-seed generator (mulberry32), so the run is the same every time
-function random(seed: number) {
-  return () => {
-    seed = (seed + 0x6D2B79F5) | 0
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed)
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
+// A seeded generator, so every run draws the same cases
+const random = seededRandom
 
 describe('seqsLeftOut', () => {
   it('is empty for no numbers', () => {
