@@ -1,4 +1,3 @@
-import mysql from 'mysql2'
 import type { H3Event } from 'h3'
 import type { Role } from '#shared/types/roles'
 
@@ -11,19 +10,15 @@ export interface ShopUser { id: number, shopId: number, name: string, email: str
 export async function requireShopUser(event: H3Event): Promise<ShopUser> {
   if (event.context.shopUser) return event.context.shopUser as ShopUser
   // The cookie is opened once a minute at most (session-cache.ts)
-  const opened = !reuseOpenedSession(event)
-  const session = await getUserSession(event)
-  if (opened) keepOpenedSession(event)
+  const session = await readSessionKept(event, () => getUserSession(event))
   if (!session.user) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in first.' })
   // The person, and whether this cookie is a copy from before a sign-out (session-revocation.ts),
-  // in one statement: every API request asks both (issue 14).
-  // Written with mysql2's escaping: drizzle's builder took longer to write it than MariaDB to answer.
+  // in one statement: every API request asks both (issue 14; queryEscaped, db.ts).
   type Row = { id: number, shopId: number, name: string, email: string, role: Role, active: number, language: string | null, revokedUntil: string | null }
-  const [[row]] = await useDB().execute(sql.raw(mysql.format(
+  const [row] = await queryEscaped<Row>(useDB(),
     `select u.id, u.shop_id as shopId, u.name, u.email, u.role, u.active, u.language, s.until as revokedUntil
      from users u left join revoked_sessions s on s.session_id = ? where u.id = ? limit 1`,
-    [revokedKey(session.id), session.user.id],
-  ))) as unknown as [Row[]]
+    [revokedKey(session.id), session.user.id])
   if (row?.revokedUntil && utcTimestamp(row.revokedUntil).getTime() > Date.now()) {
     forgetOpenedSession(event)
     await clearUserSession(event)

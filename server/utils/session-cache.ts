@@ -25,35 +25,34 @@ function sealedCookie(event: H3Event) {
 const sessionsOf = (event: H3Event) => (event.context.sessions ??= Object.create(null)) as Record<string, OpenedSession | undefined>
 
 /**
- * Before the session is read: hands h3 the session this very cookie opened to a moment ago.
- * True when it did; false when the cookie has to be opened (then call keepOpenedSession after).
+ * Reads the session (`read`, nuxt-auth-utils' getUserSession) opening the sealed cookie at most
+ * once a minute: h3 is first handed what this very cookie opened to a moment ago; otherwise,
+ * when `read` opened it here, what it opened to is kept. A session this request already holds
+ * (read or changed earlier) is neither replaced nor kept.
  */
-export function reuseOpenedSession(event: H3Event): boolean {
+export async function readSessionKept<T>(event: H3Event, read: () => Promise<T>): Promise<T> {
   const cookie = sealedCookie(event)
-  if (!cookie || sessionsOf(event)[cookie.name]) return false
+  if (!cookie || sessionsOf(event)[cookie.name]) return read()
   const hit = kept.get(cookie.sealed)
-  if (!hit) return false
-  if (hit.until <= Date.now()) {
-    kept.delete(cookie.sealed)
-    return false
+  if (hit && hit.until > Date.now()) {
+    // A copy: a route that updates the session changes its own request's copy only
+    sessionsOf(event)[cookie.name] = structuredClone(hit.session)
+    return read()
   }
-  // A copy: a route that updates the session changes its own request's copy only
-  sessionsOf(event)[cookie.name] = structuredClone(hit.session)
-  return true
+  kept.delete(cookie.sealed)
+  const result = await read()
+  keep(cookie.sealed, sessionsOf(event)[cookie.name], event)
+  return result
 }
 
-/** After h3 opened the cookie in this request, and before anything changed the session: keeps what it opened to. */
-export function keepOpenedSession(event: H3Event) {
-  const cookie = sealedCookie(event)
-  if (!cookie) return
-  const session = sessionsOf(event)[cookie.name]
+function keep(sealed: string, session: OpenedSession | undefined, event: H3Event) {
   if (!session?.id || !session.data?.user) return
   const maxAgeMs = (Number((useRuntimeConfig(event).session as { maxAge?: number } | undefined)?.maxAge) || 0) * 1000
   const until = Math.min(Date.now() + KEEP_MS, maxAgeMs ? session.createdAt + maxAgeMs : Number.POSITIVE_INFINITY)
   if (until <= Date.now()) return
   // The oldest goes first when full
   if (kept.size >= MAX_KEPT) kept.delete(kept.keys().next().value!)
-  kept.set(cookie.sealed, { session: structuredClone({ id: session.id, createdAt: session.createdAt, data: session.data }), until })
+  kept.set(sealed, { session: structuredClone({ id: session.id, createdAt: session.createdAt, data: session.data }), until })
 }
 
 /** The cookie's session ended (signed out, the person gone): it is opened afresh next time. */

@@ -19,7 +19,7 @@ const BASE_KEYS = new Set(['id', 'runId', 'type', 'at', 'actorId', 'deviceId'])
 interface StoredRow { seq: number, id: string, runId: string, type: string, actorId: number, deviceId: string, at: Date, payload: Record<string, unknown>, flag: string | null }
 /** A stored event as the fold and the Ledger read it. */
 type FoldRow = Omit<StoredRow, 'seq'> & { receivedAt: Date }
-/** A run this transaction created, whose stored events the caller already has (freshRows): the rows and, in the same order, the fold's events. */
+/** A run this transaction created, whose stored events the caller already has (foldAhead): the rows and, in the same order, the fold's events. */
 interface KnownRun { run: { id: string, machineId: number, procedureVersionId: number }, rows: FoldRow[], events: RunEvent[], state?: RunState }
 
 /**
@@ -135,7 +135,7 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   const startChecks = new Map<string, Promise<string | null>>()
   // The reads of every batch are written with mysql2's escaping: drizzle's builder took longer to
   // write them than MariaDB to answer them (issue 14).
-  const qualificationRows = selectRows<{ procedureId: number }>(db, 'select procedure_id as procedureId from qualifications where user_id = ?', [user.id])
+  const qualificationRows = queryEscaped<{ procedureId: number }>(db, 'select procedure_id as procedureId from qualifications where user_id = ?', [user.id])
   if (starts.length <= 3) {
     // (the start's own read goes out at once; only its last check waits for the qualifications)
     const solo = qualificationRows.then(rows => new Set(rows.map(q => q.procedureId)))
@@ -146,18 +146,18 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
     ids.length ? storedIds(db, ids) : [] as StoredId[],
     // The runs these events belong to, with their procedure
     runIds.length
-      ? selectRows<{ id: string, shopId: number, procedureVersionId: number, startedBy: number, mode: 'guided' | 'solo', procedureId: number }>(db,
+      ? queryEscaped<{ id: string, shopId: number, procedureVersionId: number, startedBy: number, mode: 'guided' | 'solo', procedureId: number }>(db,
           `select r.id, r.shop_id as shopId, r.procedure_version_id as procedureVersionId, r.started_by as startedBy, r.mode, v.procedure_id as procedureId
            from runs r join procedure_versions v on v.id = r.procedure_version_id where r.id in (?)`, [runIds])
       : [],
     // This shop's people (active is 1 or 0 here)
-    selectRows<{ id: number, name: string, role: Role, active: number, pinHash: string | null, passwordHash: string }>(db,
+    queryEscaped<{ id: number, name: string, role: Role, active: number, pinHash: string | null, passwordHash: string }>(db,
       'select id, name, role, active, pin_hash as pinHash, password_hash as passwordHash from users where shop_id = ?', [user.shopId]),
     // The procedures this person may run solo
     qualificationRows,
     // Which of the other watched runs are this shop's
     watchOnly.length
-      ? selectRows<{ id: string }>(db, 'select id from runs where shop_id = ? and id in (?)', [user.shopId, watchOnly])
+      ? queryEscaped<{ id: string }>(db, 'select id from runs where shop_id = ? and id in (?)', [user.shopId, watchOnly])
       : [],
     ...startChecks.values(),
   ])
@@ -311,8 +311,8 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
     // The tablet's own events come back only when the server added its verdict to them. Those
     // this batch stored without one are known by their sequence numbers (ranges of the index
     // stepped over, their rows never read); the others by id, their stored JSON looked into.
-    const ownSeqs = toInsert.filter(e => !e.verdict && storedSeq.has(e.id)).map(e => storedSeq.get(e.id)!)
     const bySeq = new Set(toInsert.filter(e => !e.verdict && storedSeq.has(e.id)).map(e => e.id))
+    const ownSeqs = [...bySeq].map(id => storedSeq.get(id)!)
     const own = request.events.map(e => e.id).filter((id): id is string => typeof id === 'string' && !bySeq.has(id))
     const since = request.since ?? 0
     // One statement, so the cursor and the rows come from the same snapshot: the newest of these
@@ -341,15 +341,9 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   return { accepted, rejected, events, cursor }
 }
 
-/** Rows of one read written with mysql2's own escaping (values as mysql2 returns them). */
-async function selectRows<T>(db: DB, statement: string, values: Parameters<typeof mysql.format>[1]): Promise<T[]> {
-  const [rows] = await db.execute(sql.raw(mysql.format(statement, values))) as unknown as [T[]]
-  return rows
-}
-
 type StoredId = { id: string, runId: string, shopId: number }
 /** Which of these event ids are stored, and where. Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14). */
-const storedIds = (db: DB, ids: string[]) => selectRows<StoredId>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
+const storedIds = (db: DB, ids: string[]) => queryEscaped<StoredId>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
 
 /** Was this seal nonce stored with an earlier sign-off? */
 async function usedNonce(nonce: string) {
@@ -494,10 +488,8 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       if (newRun) {
         try {
           // (mysql2's escaping: drizzle's builder took longer to write it than MariaDB to store it)
-          await db.execute(sql.raw(mysql.format(
-            'insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, ?)',
-            [newRun.id, newRun.shopId, newRun.machineId, newRun.procedureVersionId, newRun.startedBy, newRun.mode, sqlTime(newRun.startedAt.toISOString())],
-          )))
+          await queryEscaped(db, 'insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, ?)',
+            [newRun.id, newRun.shopId, newRun.machineId, newRun.procedureVersionId, newRun.startedBy, newRun.mode, sqlTime(newRun.startedAt.toISOString())])
           created = true
         }
         catch (error) {
@@ -561,7 +553,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       }
       if (!done.length) return
       // A run this transaction created, its events stored by one plain INSERT, is folded from
-      // these events as stored instead of being read back (issue 14, freshRows).
+      // these events as stored instead of being read back (issue 14, foldAhead).
       const known = ahead && returned ? arrived(ahead, returned) : undefined
       await refoldRuns(db, user.shopId, [done[0]!.runId], done.map(e => e.id), known, peopleIds)
       // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
@@ -576,7 +568,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
   catch (error) {
     if (transient(error)) throw error
     // A run trusted new that could not be stored whole: the batch again, every id looked up
-    if (unchecked || error instanceof LookUpFirst) throw error instanceof LookUpFirst ? error : new LookUpFirst()
+    if (unchecked) throw error instanceof LookUpFirst ? error : new LookUpFirst()
     // Without a savepoint what this run wrote before the refusal cannot be undone alone.
     if (alone) throw new StoreAgain()
     rejected.length = 0
@@ -609,7 +601,7 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
   // (drizzle's builder took longer to write it than MariaDB to answer). Without a newer version
   // the left join gives one row of nulls; with some, the earliest comes first.
   type Row = { retiredAt: string | null, procedureId: number | null, procedureRetiredAt: string | null, newerVersion: number | null, newerAt: string | null }
-  const [found] = await selectRows<Row>(useDB(), `select m.retired_at as retiredAt, v.procedure_id as procedureId, p.retired_at as procedureRetiredAt,
+  const [found] = await queryEscaped<Row>(useDB(), `select m.retired_at as retiredAt, v.procedure_id as procedureId, p.retired_at as procedureRetiredAt,
       newer.version as newerVersion, newer.created_at as newerAt
     from machines m
       left join procedure_versions v on v.id = ? and v.shop_id = ?
@@ -714,6 +706,6 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     else await db.update(tables.runs).set(summary).where(eq(tables.runs.id, run.id))
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
-  // The runs whose rows the caller knows were created in its transaction (freshRows)
+  // The runs whose rows the caller knows were created in its transaction (foldAhead)
   await writeRunLedger(db, shopId, folded, arrivedIds, rows, { summaries, peopleIds, newRuns: new Set(known?.keys()) })
 }
