@@ -10,36 +10,95 @@ export const tables = schema
 let pool: mysql.Pool | undefined
 // The promise pool's database; drizzle's own return type names the callback pool's overload.
 let db: MySql2Database<typeof schema> | undefined
+// The pool whose connections may send several statements at once (useStatementsAtOnce)
+let batchPool: mysql.Pool | undefined
+let poolOptions: mysql.PoolOptions | undefined
+
+/** The pools' settings, from NUXT_DB_* runtime config; both pools share one node choice (db-nodes). */
+function options(): mysql.PoolOptions {
+  if (poolOptions) return poolOptions
+  const { db: cfg } = useRuntimeConfig()
+  const nodes = parseDbHosts(String(cfg.host ?? ''), Number(cfg.port) || 3306)
+  const socket = String(cfg.socket ?? '')
+  poolOptions = {
+    host: nodes[0]!.host,
+    port: nodes[0]!.port,
+    // Several nodes (a Galera cluster): each new connection goes to the node in use (db-nodes)
+    ...(nodes.length > 1 && { stream: nodeStream(nodes) }),
+    // One MariaDB on this machine: its Unix socket spares every statement the loopback TCP path (issue 14)
+    ...(nodes.length === 1 && socket && { socketPath: socket }),
+    user: cfg.user,
+    password: cfg.password,
+    database: cfg.name,
+    connectionLimit: 10,
+    // Timestamps are stored and read as UTC whatever the machine's zone.
+    timezone: 'Z',
+    dateStrings: false,
+    // mysql2's own formatting, except that a statement with no values is sent as it is: the
+    // default scans the whole text for placeholders even then, and a sync batch's INSERT is
+    // written (escaped) before it is sent, some 100 KB scanned a second time (issue 14).
+    queryFormat: (statement: string, values: unknown) =>
+      values === undefined || (Array.isArray(values) && values.length === 0) ? statement : mysql.format(statement, values as never, false, 'Z'),
+  }
+  return poolOptions
+}
 
 /** One lazy mysql2 pool per server process, configured from NUXT_DB_* runtime config. */
 export function useDB() {
   if (!db) {
-    const { db: cfg } = useRuntimeConfig()
-    const nodes = parseDbHosts(String(cfg.host ?? ''), Number(cfg.port) || 3306)
-    const socket = String(cfg.socket ?? '')
-    pool = mysql.createPool({
-      host: nodes[0]!.host,
-      port: nodes[0]!.port,
-      // Several nodes (a Galera cluster): each new connection goes to the node in use (db-nodes)
-      ...(nodes.length > 1 && { stream: nodeStream(nodes) }),
-      // One MariaDB on this machine: its Unix socket spares every statement the loopback TCP path (issue 14)
-      ...(nodes.length === 1 && socket && { socketPath: socket }),
-      user: cfg.user,
-      password: cfg.password,
-      database: cfg.name,
-      connectionLimit: 10,
-      // Timestamps are stored and read as UTC whatever the machine's zone.
-      timezone: 'Z',
-      dateStrings: false,
-      // mysql2's own formatting, except that a statement with no values is sent as it is: the
-      // default scans the whole text for placeholders even then, and a sync batch's INSERT is
-      // written (escaped) before it is sent, some 100 KB scanned a second time (issue 14).
-      queryFormat: (statement: string, values: unknown) =>
-        values === undefined || (Array.isArray(values) && values.length === 0) ? statement : mysql.format(statement, values as never, false, 'Z'),
-    })
+    pool = mysql.createPool(options())
     db = drizzle(pool, { schema, mode: 'default' })
   }
   return db
+}
+
+// Timestamps as drizzle reads them: UTC text (utcTimestamp), on its connections and ours alike
+const typeCast: mysql.TypeCast = (field, next) =>
+  field.type === 'TIMESTAMP' || field.type === 'DATETIME' || field.type === 'DATE' ? field.string() : next()
+
+/** A connection of the several-statements pool, for one transaction (useStatementsAtOnce). */
+export interface StatementsConnection {
+  /** Sends these statements, written and escaped already, in one round trip: the result of each, in order. MariaDB stops at the first that fails (the promise fails with its error). */
+  send: (statements: string[]) => Promise<unknown[]>
+  /** The same connection as drizzle's database, for the statements between. */
+  db: DB
+}
+const drizzleOf = new WeakMap<object, DB>()
+
+/**
+ * Runs `work` on a connection that may send several statements in one round trip: a sync batch
+ * that starts its run opens its transaction with its writes and closes it with the last ones
+ * (sync.ts, issue 14: each round trip cost about a millisecond). Only statements written with
+ * mysql2's escaping go through it, and it is a pool of its own, so no other route's connection
+ * accepts more than one statement at a time. What `work` leaves open is rolled back.
+ */
+export async function useStatementsAtOnce<T>(work: (connection: StatementsConnection) => Promise<T>): Promise<T> {
+  useDB()
+  batchPool ??= mysql.createPool({ ...options(), multipleStatements: true })
+  const connection = await batchPool.getConnection()
+  const own = drizzleOf.get(connection.connection) ?? drizzle(connection as never, { schema, mode: 'default' }) as unknown as DB
+  drizzleOf.set(connection.connection, own)
+  const send = async (statements: string[]) => {
+    const [results] = await connection.query({ sql: statements.join(';\n'), typeCast })
+    // One statement gives its result alone, several an array of them
+    return statements.length === 1 ? [results] : results as unknown[]
+  }
+  try {
+    const result = await work({ send, db: own })
+    connection.release()
+    return result
+  }
+  catch (error) {
+    // Whatever the work left open is undone; a connection that cannot even do that is dropped.
+    try {
+      await connection.query('rollback')
+      connection.release()
+    }
+    catch {
+      connection.destroy()
+    }
+    throw error
+  }
 }
 
 export type DB = ReturnType<typeof useDB>
@@ -60,9 +119,11 @@ export const utcTimestamp = (text: string) => new Date(`${text}+0000`)
 export type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]
 
 export async function closeDB() {
-  await pool?.end()
+  await Promise.all([pool?.end(), batchPool?.end()])
   pool = undefined
+  batchPool = undefined
   db = undefined
+  poolOptions = undefined
 }
 
 // mysql2 error codes that mean "MariaDB is not there just now" (stopped, restarting, too busy),
@@ -92,4 +153,10 @@ export function databaseUnreachable(error: unknown): { code: string } | null {
     if (/Can't add new command when connection is in closed state|Pool is closed/.test(String(e.message ?? ''))) return { code: code || 'CONNECTION_CLOSED' }
   }
   return null
+}
+
+/** A drizzle statement as the text mysql2 would send for it (the same escaping as our pools' queryFormat), to be sent later with others (useStatementsAtOnce). */
+export function statementText(query: { toSQL: () => { sql: string, params: unknown[] } }) {
+  const { sql: text, params } = query.toSQL()
+  return mysql.format(text, params as never, false, 'Z')
 }

@@ -53,6 +53,12 @@ export interface LedgerWriteOptions {
   summaries?: ReadonlyMap<string, Pick<typeof tables.runs.$inferInsert, 'status' | 'currentStepKey' | 'finishedAt'>>
   peopleIds?: ReadonlySet<number>
   newRuns?: ReadonlySet<string>
+  /**
+   * Where the writes go, as statement text, when the caller sends them itself with its COMMIT
+   * (sync.ts, useStatementsAtOnce); only when every run is new, so that nothing here reads back
+   * what they write.
+   */
+  deferred?: string[]
 }
 
 export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[], arrivedIds: readonly string[] = [], runEvents?: LedgerEventRow[], options: LedgerWriteOptions = {}) {
@@ -98,6 +104,8 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
     if (r.changedAt === null) current.set(k, r)
   }
   const haveKeys = new Set(existing.map(r => r.entryKey))
+  // New runs have no entries to change, so none of the writes below is read back
+  const deferred = toRead.length ? undefined : options.deferred
 
   // Sign-offs are entered under the signer; fall back to the sender if that is not a person of
   // this shop (actor_id must name one).
@@ -154,10 +162,16 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
     }
 
     const minutes = spindleMinutesOf(f.state, f.steps, id => planMinutes.get(id) ?? null)
-    await db.update(tables.runs).set({ ...options.summaries?.get(f.run.id), spindleMinutes: minutes }).where(eq(tables.runs.id, f.run.id))
+    const update = db.update(tables.runs).set({ ...options.summaries?.get(f.run.id), spindleMinutes: minutes }).where(eq(tables.runs.id, f.run.id))
+    if (deferred) deferred.push(statementText(update))
+    else await update
   }
   // ignore(): two merges folding the same run at once may both try to add the same entry
-  if (inserts.length) await db.insert(l).ignore().values(inserts)
+  if (inserts.length) {
+    const insert = db.insert(l).ignore().values(inserts)
+    if (deferred) deferred.push(statementText(insert))
+    else await insert
+  }
   if (!changes.length) return
 
   // Each changed entry: one entry-changed row naming the cause, then the old row marked; both

@@ -251,63 +251,16 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
     toInsert.push(event)
   }
 
-  // 4. Store run by run, each in a savepoint of one transaction. An event counts as accepted only
-  // once its row is stored (or the same id already was); one MariaDB refuses, or one that makes
-  // its run unstorable, is rejected on its own with a reason and the rest go on.
-  const stored = new Set<string>()
-  // The sequence numbers of rows this batch stored, where the INSERT returned them
-  const storedSeq = new Map<string, number>()
-  if (toInsert.length) {
-    const runsToStore = [...new Set(toInsert.map(e => e.runId))]
-    // alone: a batch of one run is first stored without a savepoint of its own (two round trips
-    // fewer, issue 14); if that run cannot be stored whole, the transaction is undone and the
-    // batch stored again the careful way, each run in its savepoint.
-    const store = (alone: boolean) => withWriteRetry(() => db.transaction(async (tx) => {
-      // Outcomes are kept per try: a write conflict retried (withWriteRetry) starts them afresh.
-      const ok = new Set<string>()
-      const seqs = new Map<string, number>()
-      const refused: SyncRejection[] = []
-      // Each seal's nonce, once. Two batches racing with one seal cannot both count it for
-      // different events: the seal also names its event, whose id is unique.
-      if (nonces.length) await tx.insert(tables.signoffNonces).values(nonces).onDuplicateKeyUpdate({ set: { nonce: sql`nonce` } })
-      for (const runId of runsToStore) {
-        const newRun = newRuns.get(runId)
-        const one = await storeRunEvents(tx as unknown as DB, user, newRun, toInsert.filter(e => e.runId === runId), peopleIds, alone, !!newRun && startedHere.has(runId))
-        for (const id of one.stored) ok.add(id)
-        for (const [id, seq] of one.seqs) seqs.set(id, seq)
-        refused.push(...one.rejected)
-      }
-      // The override's alert also goes out for stored sign-offs whose signature failed its check
-      await enqueueSignoffFailedAlerts(tx, user, failedSignoffs.filter(f => ok.has(f.event.id)))
-      return { ok, seqs, refused }
-    }))
-    let outcome: Awaited<ReturnType<typeof store>>
-    try {
-      outcome = await store(runsToStore.length === 1)
-    }
-    catch (error) {
-      if (!(error instanceof StoreAgain)) throw error
-      outcome = await store(false)
-    }
-    for (const id of outcome.ok) stored.add(id)
-    for (const [id, seq] of outcome.seqs) storedSeq.set(id, seq)
-    for (const r of outcome.refused) reject(r.id, r.reason)
-  }
-  const inserted = new Set(toInsert.map(e => e.id))
-  const storedOrKnown = accepted.filter(id => stored.has(id) || !inserted.has(id))
-  accepted.length = 0
-  accepted.push(...storedOrKnown)
-
-  // 5. What the tablet does not have yet of the runs it sent or watches.
-  // Only this shop's runs: those of the batch stored before or now, and the watched ones found above
-  const storedRuns = new Set(toInsert.filter(e => stored.has(e.id)).map(e => e.runId))
-  const watched = [
-    ...runIds.filter(id => runsById.get(id)?.shopId === user.shopId || (newRuns.has(id) && storedRuns.has(id))),
-    ...watchedRows.map(r => r.id),
-  ]
-  let cursor = request.since ?? 0
-  const events: ServerEvent[] = []
-  if (watched.length) {
+  // 5. (written here, sent after step 4) What the tablet does not have yet of the runs it sent or
+  // watches: only this shop's, those of the batch stored before or now and the watched ones found
+  // above. The statement, or null when there is nothing to read back.
+  const readBack = (stored: ReadonlySet<string>, storedSeq: ReadonlyMap<string, number>) => {
+    const storedRuns = new Set(toInsert.filter(e => stored.has(e.id)).map(e => e.runId))
+    const watched = [
+      ...runIds.filter(id => runsById.get(id)?.shopId === user.shopId || (newRuns.has(id) && storedRuns.has(id))),
+      ...watchedRows.map(r => r.id),
+    ]
+    if (!watched.length) return null
     // The tablet's own events come back only when the server added its verdict to them. Those
     // this batch stored without one are known by their sequence numbers (ranges of the index
     // stepped over, their rows never read); the others by id, their stored JSON looked into.
@@ -325,13 +278,84 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
       seqsLeftOut(ownSeqs),
       own.length ? mysql.format(' and (r.id not in (?) or json_exists(r.payload, \'$.verdict\'))', [own]) : '',
     ].join('')
-    type Row = { top: number | null, seq: number, id: string | null, runId: string, type: string, actorId: number, deviceId: string, at: string, payload: unknown, flag: string | null }
-    const [rows] = await db.execute(sql.raw(`select latest.top, r.seq, r.id, r.run_id as runId, r.type, r.actor_id as actorId, r.device_id as deviceId, r.at, r.payload, r.flag
+    return `select latest.top, r.seq, r.id, r.run_id as runId, r.type, r.actor_id as actorId, r.device_id as deviceId, r.at, r.payload, r.flag
       from (select max(n.seq) as top from run_events n force index (run_events_run_idx) where ${newer('n')}) latest
       left join run_events r force index (run_events_run_idx) on ${newer('r')}${mine}
-      order by r.seq`)) as unknown as [Row[]]
-    cursor = Math.max(cursor, Number(rows[0]?.top ?? 0))
-    for (const row of rows) {
+      order by r.seq`
+  }
+
+  // 4. Store run by run, each in a savepoint of one transaction. An event counts as accepted only
+  // once its row is stored (or the same id already was); one MariaDB refuses, or one that makes
+  // its run unstorable, is rejected on its own with a reason and the rest go on.
+  const stored = new Set<string>()
+  // The sequence numbers of rows this batch stored, where the INSERT returned them
+  const storedSeq = new Map<string, number>()
+  // Step 5's rows when step 4 read them back with its COMMIT (storeStartedRun)
+  let readRows: ReadBackRow[] | null | undefined
+  if (toInsert.length) {
+    const runsToStore = [...new Set(toInsert.map(e => e.runId))]
+    const onlyRun = runsToStore.length === 1 ? runsToStore[0]! : undefined
+    const newRun = onlyRun === undefined ? undefined : newRuns.get(onlyRun)
+    if (newRun && startedHere.has(newRun.id) && !nonces.length && !failedSignoffs.length) {
+      // A batch that starts its run and stores nothing else: its transaction in three round trips
+      const events = toInsert
+      const outcome = await withWriteRetry(() => storeStartedRun(user, newRun, events, peopleIds,
+        seqs => readBack(new Set(events.map(e => e.id)), seqs)))
+      for (const e of events) stored.add(e.id)
+      for (const [id, seq] of outcome.seqs) storedSeq.set(id, seq)
+      readRows = outcome.rows
+    }
+    else {
+      // alone: a batch of one run is first stored without a savepoint of its own (two round trips
+      // fewer, issue 14); if that run cannot be stored whole, the transaction is undone and the
+      // batch stored again the careful way, each run in its savepoint.
+      const store = (alone: boolean) => withWriteRetry(() => db.transaction(async (tx) => {
+        // Outcomes are kept per try: a write conflict retried (withWriteRetry) starts them afresh.
+        const ok = new Set<string>()
+        const seqs = new Map<string, number>()
+        const refused: SyncRejection[] = []
+        // Each seal's nonce, once. Two batches racing with one seal cannot both count it for
+        // different events: the seal also names its event, whose id is unique.
+        if (nonces.length) await tx.insert(tables.signoffNonces).values(nonces).onDuplicateKeyUpdate({ set: { nonce: sql`nonce` } })
+        for (const runId of runsToStore) {
+          const newRun = newRuns.get(runId)
+          const one = await storeRunEvents(tx as unknown as DB, user, newRun, toInsert.filter(e => e.runId === runId), peopleIds, alone, !!newRun && startedHere.has(runId))
+          for (const id of one.stored) ok.add(id)
+          for (const [id, seq] of one.seqs) seqs.set(id, seq)
+          refused.push(...one.rejected)
+        }
+        // The override's alert also goes out for stored sign-offs whose signature failed its check
+        await enqueueSignoffFailedAlerts(tx, user, failedSignoffs.filter(f => ok.has(f.event.id)))
+        return { ok, seqs, refused }
+      }))
+      let outcome: Awaited<ReturnType<typeof store>>
+      try {
+        outcome = await store(onlyRun !== undefined)
+      }
+      catch (error) {
+        if (!(error instanceof StoreAgain)) throw error
+        outcome = await store(false)
+      }
+      for (const id of outcome.ok) stored.add(id)
+      for (const [id, seq] of outcome.seqs) storedSeq.set(id, seq)
+      for (const r of outcome.refused) reject(r.id, r.reason)
+    }
+  }
+  const inserted = new Set(toInsert.map(e => e.id))
+  const storedOrKnown = accepted.filter(id => stored.has(id) || !inserted.has(id))
+  accepted.length = 0
+  accepted.push(...storedOrKnown)
+
+  // 5. What the tablet does not have yet of the runs it sent or watches (the statement above)
+  if (readRows === undefined) {
+    const statement = readBack(stored, storedSeq)
+    readRows = statement ? (await db.execute(sql.raw(statement)) as unknown as [ReadBackRow[]])[0] : null
+  }
+  let cursor = request.since ?? 0
+  const events: ServerEvent[] = []
+  if (readRows) {
+    cursor = Math.max(cursor, Number(readRows[0]?.top ?? 0))
+    for (const row of readRows) {
       if (row.id === null) continue
       // As drizzle reads them: a timestamp comes as UTC text, the JSON column as text
       const payload = (typeof row.payload === 'string' ? JSON.parse(row.payload) : row.payload) as Record<string, unknown>
@@ -340,6 +364,9 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   }
   return { accepted, rejected, events, cursor }
 }
+
+/** A row of step 5's read-back: the newest sequence number of the runs (top), beside each new row (or nulls when none is new). */
+type ReadBackRow = { top: number | null, seq: number, id: string | null, runId: string, type: string, actorId: number, deviceId: string, at: string, payload: unknown, flag: string | null }
 
 type StoredId = { id: string, runId: string, shopId: number }
 /** Which of these event ids are stored, and where. Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14). */
@@ -588,6 +615,57 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
 }
 
 /**
+ * A batch that starts its run and holds nothing else to store (no sign-off, no other run): one
+ * transaction in three round trips where storeRunEvents takes eight (issue 14: on a shop's
+ * server each round trip costs about a millisecond beyond MariaDB's own time).
+ * 1. BEGIN, the run's row and its events' rows, sent at once; the run is folded meanwhile
+ *    (foldAhead) from the events as they are stored.
+ * 2. The override alerts, if any (they read the shop's owners).
+ * 3. The flags, the run's summary and the Ledger's entries, as statement text (refoldRuns'
+ *    deferred), then COMMIT and step 5's read-back (`readBack`, given the rows' sequence numbers),
+ *    sent at once.
+ * The ids were not looked up (mergeChecked's trustNewRuns): if the run or any event id is stored
+ * already, or MariaDB refuses any statement, everything is rolled back and LookUpFirst sends the
+ * batch the careful way. A write conflict is thrown on for withWriteRetry.
+ */
+async function storeStartedRun(user: ShopUser, newRun: typeof tables.runs.$inferInsert, events: RunEvent[], peopleIds: ReadonlySet<number>,
+  readBack: (seqs: ReadonlyMap<string, number>) => string | null): Promise<{ seqs: Map<string, number>, rows: ReadBackRow[] | null }> {
+  return useStatementsAtOnce(async ({ send, db }) => {
+    try {
+      const json = new Map(events.map(e => [e.id, JSON.stringify(payloadOf(e))]))
+      const opening = send([
+        'begin',
+        // The run's row, then its events' rows (they return their sequence numbers and arrival times)
+        mysql.format('insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, ?)',
+          [newRun.id, newRun.shopId, newRun.machineId, newRun.procedureVersionId, newRun.startedBy, newRun.mode, sqlTime(newRun.startedAt.toISOString())]),
+        insertEventsSql(user.shopId, events, json, false),
+      ])
+      opening.catch(() => {}) // (awaited below; this only keeps it from counting as unhandled meanwhile)
+      const ahead = await foldAhead(user.shopId, newRun, events, json)
+      const rows = (await opening)[2] as { id: string, seq: number, receivedAt: string }[]
+      const returned: Returned = new Map(rows.map(r => [r.id, { seq: Number(r.seq), receivedAt: utcTimestamp(r.receivedAt) }]))
+      const known = arrived(ahead, returned)
+      if (!known) throw new LookUpFirst()
+      const deferred: string[] = []
+      await refoldRuns(db, user.shopId, [newRun.id], events.map(e => e.id), known, peopleIds, deferred)
+      // Owner alerts for the overrides stored here, in the same transaction (mail outbox).
+      await enqueueOverrideAlerts(db as unknown as Tx, user, events.filter(e => e.verdict?.status !== 'refused'))
+      const seqs = new Map([...returned].map(([id, r]) => [id, r.seq]))
+      const back = readBack(seqs)
+      const closing = await send([...deferred, 'commit', ...(back ? [back] : [])])
+      return { seqs, rows: back ? closing.at(-1) as ReadBackRow[] : null }
+    }
+    catch (error) {
+      // A lock wait, a write conflict, a lost connection: thrown on (withWriteRetry, or the tablet
+      // sends the batch again). Anything else (the run or an event id stored already by another
+      // merge, a row or a number MariaDB refuses): undone, and the batch goes the careful way.
+      if (transient(error) || error instanceof LookUpFirst) throw error
+      throw new LookUpFirst()
+    }
+  })
+}
+
+/**
  * Is this person allowed to start this run here? Returns the reason when not. `qualifiedFor`:
  * the procedures this person may run solo (the caller has read them).
  *
@@ -643,7 +721,9 @@ function refuseUnstorableNumbers(value: unknown, depth = 0): void {
 /** Folds runs from their stored events and writes back the run summary and event flags. */
 // arrivedIds: the events this batch stored, so the Ledger can say which of them changed the record.
 // peopleIds: the ids of this shop's people when the caller has just read them (ledger-write.ts).
-export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = [], known?: Map<string, KnownRun>, peopleIds?: ReadonlySet<number>) {
+// deferred: where the writes go as statement text when the caller sends them with its COMMIT
+// (storeStartedRun); used only when the caller knows every run.
+export async function refoldRuns(db: DB, shopId: number, runIds: string[], arrivedIds: readonly string[] = [], known?: Map<string, KnownRun>, peopleIds?: ReadonlySet<number>, deferred?: string[]) {
   if (!runIds.length) return
   const toRead = runIds.filter(id => !known?.has(id))
   const runRows = toRead.length
@@ -691,7 +771,9 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
       if (flag !== row.flag) (changes.get(flag) ?? changes.set(flag, []).get(flag)!).push(row.id)
     }
     for (const [flag, ids] of changes) {
-      await db.update(tables.runEvents).set({ flag }).where(inArray(tables.runEvents.id, ids))
+      const update = db.update(tables.runEvents).set({ flag }).where(inArray(tables.runEvents.id, ids))
+      if (deferred) deferred.push(statementText(update))
+      else await update
     }
     await recordFacing(db, shopId, run, state, steps)
     const current = state.steps[state.currentStepIndex]
@@ -703,9 +785,13 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     // A run the Ledger writes (its procedure known) gets its summary in the Ledger's UPDATE of
     // its spindle time: one statement per run (issue 14).
     if (procedureId !== undefined) summaries.set(run.id, summary)
-    else await db.update(tables.runs).set(summary).where(eq(tables.runs.id, run.id))
+    else {
+      const update = db.update(tables.runs).set(summary).where(eq(tables.runs.id, run.id))
+      if (deferred) deferred.push(statementText(update))
+      else await update
+    }
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
   // The runs whose rows the caller knows were created in its transaction (foldAhead)
-  await writeRunLedger(db, shopId, folded, arrivedIds, rows, { summaries, peopleIds, newRuns: new Set(known?.keys()) })
+  await writeRunLedger(db, shopId, folded, arrivedIds, rows, { summaries, peopleIds, newRuns: new Set(known?.keys()), deferred })
 }

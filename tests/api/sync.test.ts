@@ -284,6 +284,56 @@ describe('when MariaDB refuses a write', () => {
   })
 })
 
+describe('a batch that starts its run, sent in few round trips', () => {
+  it('stores text with quotes, semicolons and backslashes as written, and nothing else runs', async () => {
+    // Such a batch goes to MariaDB as several statements at once (server/utils/sync.ts,
+    // storeStartedRun): text that looks like SQL must stay text.
+    const runId = uuidv7()
+    const texts = [
+      'Nut \'tight\'; drop table runs; --',
+      'Back\\slash \\\'; insert into runs (id) values (\'x\'); #',
+      '"; commit; rollback; select 1; /* */',
+    ]
+    const batch = [start(runId, 'operator'), ...texts.map((text, i) => ev(runId, 'operator', 'note.added', i + 1, { text }))]
+    const res = await sync('operator', batch)
+    expect(res.body.rejected).toEqual([])
+    expect(res.body.accepted).toHaveLength(batch.length)
+    const rows = await rowsOf(runId)
+    const stored = rows.filter(r => r.type === 'note.added').map(r => (typeof r.payload === 'string' ? JSON.parse(r.payload) : r.payload).text)
+    expect(stored.sort()).toEqual([...texts].sort())
+    const [[runs]] = await db().query<any[]>('select count(*) as n from runs where id in (?, \'x\')', [runId])
+    expect(Number(runs.n)).toBe(1)
+  })
+
+  it('leaves no half-done transaction behind when the last statements are refused', async () => {
+    const runId = uuidv7()
+    // The Ledger's entries go with the COMMIT: refusing the hold's entry refuses that whole
+    // transaction; the batch is then stored the careful way, event by event, without the hold.
+    await db().query('drop trigger if exists jogwise_test_refuse_ledger')
+    await db().query(`create trigger jogwise_test_refuse_ledger before insert on ledger_entries for each row
+      if new.run_id = '${runId}' then signal sqlstate '45000' set message_text = 'refused by the test'; end if`)
+    const kept = [start(runId, 'operator'), ev(runId, 'operator', 'step.done', 1, { stepKey: 'prep' })]
+    // (an acknowledged hold is a Ledger entry)
+    const hold = ev(runId, 'operator', 'hold.acknowledged', 2, { stepKey: 'isolate' })
+    try {
+      const res = await sync('operator', [...kept, hold])
+      expect(res.body.accepted.sort()).toEqual(kept.map(e => e.id).sort())
+      expect(res.body.rejected).toEqual([{ id: hold.id, reason: expect.stringContaining('stays on this tablet') }])
+    }
+    finally {
+      await db().query('drop trigger if exists jogwise_test_refuse_ledger')
+    }
+    // Runs started on the same connections afterwards must not carry the refused transaction in with them
+    for (let i = 0; i < 4; i++) {
+      const other = uuidv7()
+      expect((await sync('operator', [start(other, 'operator', 'guided', 20 + i)])).body.accepted).toHaveLength(1)
+    }
+    expect((await rowsOf(runId)).map(r => r.id)).toEqual(kept.map(e => e.id).sort())
+    const [entries] = await db().query<any[]>('select kind from ledger_entries where run_id = ?', [runId])
+    expect(entries).toEqual([])
+  })
+})
+
 describe('withdrawing a run started by mistake', () => {
   it('is stored as withdrawn with no reason while nothing is done, and listed as withdrawn', async () => {
     const runId = uuidv7()
