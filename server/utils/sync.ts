@@ -121,46 +121,43 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
   const reject = (id: unknown, reason: string) => rejected.push({ id: typeof id === 'string' ? id : String(id ?? ''), reason })
   // 2.–3. What is already stored: these ids (the same event again is accepted as a replay,
   // another one is not), the runs they belong to, this shop's people and what this person may
-  // run solo. The reads do not depend on each other and go out at once on the pool's
-  // connections (one after another they were a fifth of the merge's time, issue 14).
+  // run solo. The reads do not depend on each other and go out at once (one after another they
+  // were a fifth of the merge's time, issue 14).
   const runIds = [...new Set(candidates.map(c => c.event.runId))]
   const startedHere = new Set(trustNewRuns ? candidates.filter(c => c.event.type === 'run.started').map(c => c.event.runId) : [])
   const ids = candidates.filter(c => !startedHere.has(c.event.runId)).map(c => c.event.id)
   // The runs the tablet watches besides these: only this shop's are read back (step 5).
   const batchRuns = new Set(runIds)
   const watchOnly = [...new Set(request.watch ?? [])].filter(id => !batchRuns.has(id))
+  const starts = candidates.map(c => c.event).filter((e): e is Extract<RunEvent, { type: 'run.started' }> => e.type === 'run.started')
+  // The reads of every batch are written with mysql2's escaping (drizzle's builder took longer to
+  // write them than MariaDB to answer them) and sent together, one round trip on one connection
+  // (issue 14: each round trip costs about a millisecond beyond MariaDB's own time).
+  const reads: string[] = []
+  const read = (statement: string, values: Parameters<typeof mysql.format>[1]) => reads.push(mysql.format(statement, values)) - 1
+  // The procedures this person may run solo
+  const qualificationsAt = read('select procedure_id as procedureId from qualifications where user_id = ?', [user.id])
+  // The events stored already
+  const existingAt = ids.length ? read(STORED_IDS, [ids]) : -1
+  // The runs these events belong to, with their procedure
+  const runsAt = runIds.length
+    ? read(`select r.id, r.shop_id as shopId, r.procedure_version_id as procedureVersionId, r.started_by as startedBy, r.mode, v.procedure_id as procedureId
+        from runs r join procedure_versions v on v.id = r.procedure_version_id where r.id in (?)`, [runIds])
+    : -1
+  // This shop's people (active is 1 or 0 here)
+  const peopleAt = read('select id, name, role, active, pin_hash as pinHash, password_hash as passwordHash from users where shop_id = ?', [user.shopId])
+  // Which of the other watched runs are this shop's
+  const watchedAt = watchOnly.length ? read('select id from runs where shop_id = ? and id in (?)', [user.shopId, watchOnly]) : -1
   // A run's start is checked (machine, version, mode) alongside, for the few starts a batch holds;
   // the answer is used only when the run turns out not to be stored yet.
-  const starts = candidates.map(c => c.event).filter((e): e is Extract<RunEvent, { type: 'run.started' }> => e.type === 'run.started')
-  const startChecks = new Map<string, Promise<string | null>>()
-  // The reads of every batch are written with mysql2's escaping: drizzle's builder took longer to
-  // write them than MariaDB to answer them (issue 14).
-  const qualificationRows = queryEscaped<{ procedureId: number }>(db, 'select procedure_id as procedureId from qualifications where user_id = ?', [user.id])
-  if (starts.length <= 3) {
-    // (the start's own read goes out at once; only its last check waits for the qualifications)
-    const solo = qualificationRows.then(rows => new Set(rows.map(q => q.procedureId)))
-    for (const e of starts) startChecks.set(e.id, checkRunStart(user, e, solo))
-  }
-  const [existing, runRows, people, qualifications, watchedRows] = await Promise.all([
-    // The events stored already
-    ids.length ? storedIds(db, ids) : [] as StoredId[],
-    // The runs these events belong to, with their procedure
-    runIds.length
-      ? queryEscaped<{ id: string, shopId: number, procedureVersionId: number, startedBy: number, mode: 'guided' | 'solo', procedureId: number }>(db,
-          `select r.id, r.shop_id as shopId, r.procedure_version_id as procedureVersionId, r.started_by as startedBy, r.mode, v.procedure_id as procedureId
-           from runs r join procedure_versions v on v.id = r.procedure_version_id where r.id in (?)`, [runIds])
-      : [],
-    // This shop's people (active is 1 or 0 here)
-    queryEscaped<{ id: number, name: string, role: Role, active: number, pinHash: string | null, passwordHash: string }>(db,
-      'select id, name, role, active, pin_hash as pinHash, password_hash as passwordHash from users where shop_id = ?', [user.shopId]),
-    // The procedures this person may run solo
-    qualificationRows,
-    // Which of the other watched runs are this shop's
-    watchOnly.length
-      ? queryEscaped<{ id: string }>(db, 'select id from runs where shop_id = ? and id in (?)', [user.shopId, watchOnly])
-      : [],
-    ...startChecks.values(),
-  ])
+  const startsAt = new Map(starts.length <= 3 ? starts.map(e => [e.id, read(...startCheckStatement(user, e))]) : [])
+  const results = await useStatementsAtOnce(({ send }) => send(reads))
+  const rowsAt = <T>(at: number) => (at < 0 ? [] : results[at] as T[])
+  const existing = rowsAt<StoredId>(existingAt)
+  const runRows = rowsAt<{ id: string, shopId: number, procedureVersionId: number, startedBy: number, mode: 'guided' | 'solo', procedureId: number }>(runsAt)
+  const people = rowsAt<{ id: number, name: string, role: Role, active: number, pinHash: string | null, passwordHash: string }>(peopleAt)
+  const qualifications = rowsAt<{ procedureId: number }>(qualificationsAt)
+  const watchedRows = rowsAt<{ id: string }>(watchedAt)
   const runsById = new Map(runRows.map(r => [r.id, r]))
   // A run this batch starts that is stored already (the batch sent again): its ids are looked up after all.
   const startedStored = candidates.filter(c => startedHere.has(c.event.runId) && runsById.has(c.event.runId)).map(c => c.event.id)
@@ -197,7 +194,10 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
     const run = runsById.get(event.runId)
     if (run && run.shopId !== user.shopId) { reject(event.id, 'No such run.'); continue }
     if (event.type === 'run.started' && !run && !newRuns.has(event.runId)) {
-      const problem = await (startChecks.get(event.id) ?? checkRunStart(user, event, qualifiedFor))
+      const checked = startsAt.get(event.id)
+      const problem = checked === undefined
+        ? await checkRunStart(user, event, qualifiedFor)
+        : startProblem(user, event, rowsAt<StartCheckRow>(checked)[0], qualifiedFor)
       if (problem) { refusedRuns.set(event.runId, problem); reject(event.id, problem); continue }
       newRuns.set(event.runId, {
         id: event.runId, shopId: user.shopId, machineId: event.machineId, procedureVersionId: event.procedureVersionId,
@@ -370,7 +370,8 @@ type ReadBackRow = { top: number | null, seq: number, id: string | null, runId: 
 
 type StoredId = { id: string, runId: string, shopId: number }
 /** Which of these event ids are stored, and where. Written with mysql2's escaping: drizzle's builder spent longer on 500 ids than MariaDB (issue 14). */
-const storedIds = (db: DB, ids: string[]) => queryEscaped<StoredId>(db, 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)', [ids])
+const STORED_IDS = 'select id, run_id as runId, shop_id as shopId from run_events where id in (?)'
+const storedIds = (db: DB, ids: string[]) => queryEscaped<StoredId>(db, STORED_IDS, [ids])
 
 /** Was this seal nonce stored with an earlier sign-off? */
 async function usedNonce(nonce: string) {
@@ -673,20 +674,33 @@ async function storeStartedRun(user: ShopUser, newRun: typeof tables.runs.$infer
  * or on a retired procedure, is refused, unless the tablet started it (its own clock) before
  * the newer version was published or the procedure retired: it was offline and could not know.
  */
-async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>, qualifiedFor: ReadonlySet<number> | Promise<ReadonlySet<number>>): Promise<string | null> {
-  // The machine, in this shop, with the version (in this shop), its procedure and the first
-  // version published after it, if any: one statement (issue 14), written with mysql2's escaping
-  // (drizzle's builder took longer to write it than MariaDB to answer). Without a newer version
-  // the left join gives one row of nulls; with some, the earliest comes first.
-  type Row = { retiredAt: string | null, procedureId: number | null, procedureRetiredAt: string | null, newerVersion: number | null, newerAt: string | null }
-  const [found] = await queryEscaped<Row>(useDB(), `select m.retired_at as retiredAt, v.procedure_id as procedureId, p.retired_at as procedureRetiredAt,
+async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>, qualifiedFor: ReadonlySet<number>): Promise<string | null> {
+  const [found] = await queryEscaped<StartCheckRow>(useDB(), ...startCheckStatement(user, event))
+  return startProblem(user, event, found, qualifiedFor)
+}
+
+/** What startCheckStatement reads: the machine's retirement, the version's procedure and its retirement, and the first newer version. */
+type StartCheckRow = { retiredAt: string | null, procedureId: number | null, procedureRetiredAt: string | null, newerVersion: number | null, newerAt: string | null }
+
+/**
+ * The machine, in this shop, with the version (in this shop), its procedure and the first
+ * version published after it, if any: one statement (issue 14), written with mysql2's escaping
+ * (drizzle's builder took longer to write it than MariaDB to answer). Without a newer version
+ * the left join gives one row of nulls; with some, the earliest comes first.
+ */
+function startCheckStatement(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>): [string, number[]] {
+  return [`select m.retired_at as retiredAt, v.procedure_id as procedureId, p.retired_at as procedureRetiredAt,
       newer.version as newerVersion, newer.created_at as newerAt
     from machines m
       left join procedure_versions v on v.id = ? and v.shop_id = ?
       left join procedures p on p.id = v.procedure_id
       left join procedure_versions newer on newer.procedure_id = v.procedure_id and newer.id > ?
     where m.id = ? and m.shop_id = ?
-    order by newer.created_at limit 1`, [event.procedureVersionId, user.shopId, event.procedureVersionId, event.machineId, user.shopId])
+    order by newer.created_at limit 1`, [event.procedureVersionId, user.shopId, event.procedureVersionId, event.machineId, user.shopId]]
+}
+
+/** checkRunStart's verdict from startCheckStatement's row (undefined: no such machine here). */
+function startProblem(user: ShopUser, event: Extract<RunEvent, { type: 'run.started' }>, found: StartCheckRow | undefined, qualifiedFor: ReadonlySet<number>): string | null {
   if (!found) return 'No such machine in this shop.'
   if (found.retiredAt) return 'That machine is retired.'
   if (found.procedureId === null) return 'No such procedure version in this shop.'
@@ -698,7 +712,7 @@ async function checkRunStart(user: ShopUser, event: Extract<RunEvent, { type: 'r
     return `Version ${found.newerVersion} of this procedure was published before the run started; start the run again on the current version.`
   }
   // Is this person qualified to run this procedure unsupervised?
-  if (event.mode === 'solo' && runModeFor(user.role, (await qualifiedFor).has(found.procedureId)) !== 'solo') {
+  if (event.mode === 'solo' && runModeFor(user.role, qualifiedFor.has(found.procedureId)) !== 'solo') {
     return user.role === 'trainee'
       ? 'A trainee\'s run is always guided.'
       : 'You are not yet qualified to run this procedure unsupervised; start it guided.'
