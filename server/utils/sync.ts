@@ -728,7 +728,9 @@ function refuseUnstorableNumbers(value: unknown, depth = 0): void {
     if (!Number.isFinite(value) || Math.abs(value) > MAX_DERIVED) throw new Unstorable('A number in this run is too large to store; check the reading and enter it again.')
   }
   else if (value && typeof value === 'object' && depth < 12) {
-    for (const v of Object.values(value)) refuseUnstorableNumbers(v, depth + 1)
+    // (for…in makes no array per object: a long run's state has thousands, issue 14)
+    if (Array.isArray(value)) for (const v of value) refuseUnstorableNumbers(v, depth + 1)
+    else for (const key in value) refuseUnstorableNumbers((value as Record<string, unknown>)[key], depth + 1)
   }
 }
 
