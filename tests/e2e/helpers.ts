@@ -23,14 +23,19 @@ export async function hydrated(page: Page) {
     && !document.querySelector('[data-starting]'))
 }
 
-/** Press and hold a control for `ms` (the deliberate gesture that acknowledges a hold). */
+/**
+ * Press and hold a control (the deliberate gesture that acknowledges a hold). The finger stays
+ * down until the screen has taken the hold, as a person lifts once the bar is full: taking it
+ * locks the primary action while the finger is still down (composables/tap-guard.ts). A hold
+ * not taken within `ms` of the press (the hold itself asks 1.5 s) fails.
+ */
 export async function pressAndHold(page: Page, name: RegExp | string, ms = 1800) {
   await runReady(page)
   const button = page.getByRole('button', { name })
   await button.hover()
   await page.mouse.down()
-  await page.waitForTimeout(ms)
-  await page.mouse.up()
+  try { await whenReady(page, false, ms, `the hold was not taken within ${ms} ms of the press`) }
+  finally { await page.mouse.up() }
 }
 
 /** Signs in, waits until the service worker controls the page and has the reads cached. */
@@ -69,7 +74,50 @@ export async function startProcedure(page: Page, machine: string, procedure: Reg
  * lifted and a short settle time has passed (composables/tap-guard.ts); tests wait for it.
  */
 export async function runReady(page: Page) {
-  await expect(page.getByTestId('primary-action-area')).toHaveAttribute('data-ready', 'true')
+  await whenReady(page, true, 10_000, 'the Run screen\'s primary action did not become ready')
+}
+
+/**
+ * Waits until the Run screen's primary action area says data-ready="true" or "false". Looked
+ * at every 50 ms: expect() backs off to 500 ms between looks, and a long run waits here at
+ * every step, each time just after the tap guard's 400 ms settle.
+ */
+async function whenReady(page: Page, ready: boolean, timeout: number, message: string) {
+  try {
+    await page.waitForFunction(want => document.querySelector('[data-testid="primary-action-area"]')?.getAttribute('data-ready') === want,
+      String(ready), { polling: 50, timeout })
+  }
+  catch (error) {
+    // "Timeout" stays in the message: the run loops look again after a timeout.
+    if (error instanceof Error && error.name === 'TimeoutError') throw new Error(`Timeout ${timeout} ms: ${message}`, { cause: error })
+    throw error
+  }
+}
+
+/**
+ * What the Run screen shows before an action: the step's heading and the primary control's
+ * element. `movedOn` then waits until the step has changed or the control was replaced by
+ * another (the hold by the signer's form, the reading by "Done", the photo by "Done"): both
+ * happen only once the action is in the run's state. A control that is only busy (a photo
+ * being stored, a sign-off being sent) is the same element, so it does not count.
+ */
+export async function runScreen(page: Page) {
+  const heading = (await page.getByRole('heading', { level: 1 }).textContent())?.trim() ?? ''
+  const control = await page.evaluateHandle(() => document.querySelector('[data-testid="primary-action"]')?.firstElementChild ?? null)
+  return {
+    heading,
+    /** Waits up to `timeout` ms for the screen to move on; after that the caller looks again. */
+    async movedOn(timeout = 5000) {
+      try {
+        await page.waitForFunction(([heading, control]) => document.querySelector('h1')?.textContent?.trim() !== heading
+          || (document.querySelector('[data-testid="primary-action"]')?.firstElementChild ?? null) !== control, [heading, control] as const, { polling: 50, timeout })
+      }
+      catch (error) {
+        if (!(error instanceof Error && error.name === 'TimeoutError')) throw error
+      }
+      finally { await control.dispose() }
+    },
+  }
 }
 
 /**

@@ -1,7 +1,7 @@
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Locator, type Page } from '@playwright/test'
 import { STARTER_LIBRARY } from '../../shared/procedures/starter-library'
-import { runReady, signIn, startProcedure, hydrated } from './helpers'
+import { pressAndHold, runReady, signIn, startProcedure, hydrated } from './helpers'
 
 // Everything in reach on a tablet in both orientations: the side actions never scroll away,
 // the longest hold of the starter library is readable whole in portrait, a step can be re-read
@@ -72,10 +72,7 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
       expect(await inView(page, page.getByRole('button', { name: /Hold to acknowledge/ }))).toBe(true)
       await page.screenshot({ path: `test-results/layout-long-hold-${viewport.width}.png` })
 
-      await page.getByRole('button', { name: /Hold to acknowledge/ }).hover()
-      await page.mouse.down()
-      await page.waitForTimeout(1800)
-      await page.mouse.up()
+      await pressAndHold(page, /Hold to acknowledge/)
       for (let i = 1; i <= 26; i++) {
         await expect(page.getByRole('heading', { level: 1 })).toHaveText(`Short step number ${i}`)
         await runReady(page)
@@ -119,13 +116,7 @@ test('a trainee\'s sign-off keeps the hold being signed in view beside the signe
   const action = page.getByTestId('primary-action')
   // Step 1 instruction, step 2 protective gear (a hold), step 3 isolate the power (a hold a trainer signs).
   await action.getByRole('button', { name: /Done — next step/ }).click()
-  for (let i = 0; i < 2; i++) {
-    await runReady(page)
-    await action.getByRole('button', { name: /Hold to acknowledge/ }).hover()
-    await page.mouse.down()
-    await page.waitForTimeout(1800)
-    await page.mouse.up()
-  }
+  for (let i = 0; i < 2; i++) await pressAndHold(page, /Hold to acknowledge/)
   await expect(action.getByText(/A trainer or the owner signs/)).toBeVisible()
   await runReady(page)
   // The hold being signed stays readable beside the signer choice: its title and signal word

@@ -1,5 +1,5 @@
 import { expect, test, type CDPSession, type Locator, type Page } from '@playwright/test'
-import { runReady, signIn, startProcedure } from './helpers'
+import { pressAndHold, runReady, signIn, startProcedure } from './helpers'
 
 // One gesture, one action, with real touch events (Input.dispatchTouchEvent through the
 // DevTools protocol, the path a finger on the glass takes), at 1024×768 and 768×1024.
@@ -98,11 +98,7 @@ for (const viewport of [{ width: 1024, height: 768 }, { width: 768, height: 1024
       expect(await serverTypes(page, runId)).toEqual(['run.started', 'step.done:first'])
 
       // Past the hold by mouse (press and hold), then a double tap on the next step's "Done".
-      await runReady(page)
-      await action.getByRole('button', { name: /Hold to acknowledge/ }).hover()
-      await page.mouse.down()
-      await page.waitForTimeout(1800)
-      await page.mouse.up()
+      await pressAndHold(page, /Hold to acknowledge/)
       await expect(page.getByRole('heading', { level: 1 })).toHaveText('Unplug the sensor cable')
       await runReady(page)
       const next = await centre(action.getByRole('button', { name: /Done — next step/ }))
