@@ -54,7 +54,7 @@ test.describe('Cutters', () => {
     await expect(operator.getByTestId('planner-zigzag-note')).toContainText('Zigzag alternates climb and conventional')
     await operator.getByText('One way', { exact: true }).click()
     await operator.getByText('Climb', { exact: true }).click()
-    await operator.screenshot({ path: '/tmp/planner-cutter.png' })
+    await operator.screenshot({ path: 'test-results/planner-cutter.png' })
     const [file] = await Promise.all([operator.waitForEvent('download'), operator.getByRole('button', { name: 'Download G-code' }).click()])
     const text = await readFile((await file.path())!, 'utf8')
     expect(text).toContain(`(Cutter ${name} rated to 10000 rpm)`)

@@ -36,7 +36,7 @@ test.describe('Library at 1024×768', () => {
       expect(box.height).toBeGreaterThanOrEqual(64)
     }
     await expect(page.getByRole('link', { name: 'New procedure' })).toHaveCount(0)
-    await page.screenshot({ path: '/tmp/library-list.png' })
+    await page.screenshot({ path: 'test-results/library-list.png' })
     expect(await seriousViolations(page)).toEqual([])
   })
 
@@ -48,7 +48,7 @@ test.describe('Library at 1024×768', () => {
     // Holds carry their Z535 signal word (ANSI Z535.4-2007 §4.14); the starter library uses WARNING.
     await expect(page.locator('[data-signal-word="WARNING"]').first()).toBeVisible()
     await expect(page.getByRole('heading', { name: 'Version history' })).toBeVisible()
-    await page.screenshot({ path: '/tmp/library-read.png', fullPage: false })
+    await page.screenshot({ path: 'test-results/library-read.png', fullPage: false })
     expect(await seriousViolations(page)).toEqual([])
     // The editor is not reachable by address either.
     await page.goto(page.url() + '/edit')
@@ -89,14 +89,14 @@ test.describe('Library at 1024×768', () => {
     await expect(hazard).toHaveAttribute('aria-invalid', 'true')
     await expect(hold.getByText('Hazard statement needs at least 10 characters.')).toBeVisible()
     await expect(hazard).toBeFocused()
-    await page.screenshot({ path: '/tmp/library-editor-error.png' })
+    await page.screenshot({ path: 'test-results/library-editor-error.png' })
     await hazard.fill(hazardText)
 
     // The preview shows the hold as the Run screen will.
     await page.getByRole('button', { name: 'Preview step 2', exact: true }).click()
     const preview = page.getByRole('dialog', { name: 'Run screen preview' })
     await expect(preview.locator('[data-signal-word]')).toBeVisible()
-    await page.screenshot({ path: '/tmp/library-preview.png' })
+    await page.screenshot({ path: 'test-results/library-preview.png' })
     await preview.getByRole('button', { name: 'Close preview' }).click()
 
     await page.getByLabel('What changed (optional)').fill('Step 1 asks for the reading to be logged.')
@@ -114,7 +114,7 @@ test.describe('Library at 1024×768', () => {
     await expect(newest).toContainText('Step 1 asks for the reading to be logged.')
     await expect(newest).toContainText('Teodor Lind')
     await expect(history.getByRole('listitem')).toHaveCount(after)
-    await page.screenshot({ path: '/tmp/library-published.png' })
+    await page.screenshot({ path: 'test-results/library-published.png' })
   })
 
   test('leaving the editor with unsaved changes asks first; staying keeps the changes', async ({ page }) => {
@@ -154,7 +154,7 @@ test.describe('Library at 1024×768', () => {
     expect(box.height).toBeGreaterThanOrEqual(64)
     expect(box.width).toBeGreaterThanOrEqual(64)
     await expect(page.getByText('Sam Ibarra')).toBeVisible()
-    await page.screenshot({ path: '/tmp/library-qualifications.png' })
+    await page.screenshot({ path: 'test-results/library-qualifications.png' })
     expect(await seriousViolations(page)).toEqual([])
     await page.reload()
     await expect(toggle).toHaveAttribute('aria-checked', String(!was))

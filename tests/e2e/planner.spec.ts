@@ -56,7 +56,7 @@ test.describe('Planner at 1024×768', () => {
     expect((await preview.boundingBox())!.width).toBeGreaterThanOrEqual(380)
     const download = page.getByRole('button', { name: 'Download G-code' })
     expect((await download.boundingBox())!.height).toBeGreaterThanOrEqual(64)
-    await page.screenshot({ path: '/tmp/planner-bench.png' })
+    await page.screenshot({ path: 'test-results/planner-bench.png' })
     // No serious or critical WCAG 2.2 AA findings from axe-core.
     const axe = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze()
     expect(axe.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => v.id)).toEqual([])
@@ -92,7 +92,7 @@ test.describe('Planner at 1024×768', () => {
     await page.getByLabel(/^X size/).fill('30')
     await expect(page.getByTestId('travel-issues')).toContainText('X needs 30.0000 in of travel, 5.5906 in more than the machine travel of 24.4094 in.')
     await expect(page.getByRole('button', { name: 'Download G-code' })).toBeDisabled()
-    await page.screenshot({ path: '/tmp/planner-errors.png', fullPage: true })
+    await page.screenshot({ path: 'test-results/planner-errors.png', fullPage: true })
 
     // Switching to millimetres converts what was typed (1 in = 25.4 mm exactly).
     await page.getByLabel(/^X size/).fill('20')
@@ -110,7 +110,7 @@ test.describe('Planner at 1024×768', () => {
     await page.getByRole('link', { name: 'Open the Planner' }).click()
     await expect(page.getByRole('heading', { name: 'Planner', level: 1 })).toBeVisible()
     await expect(page.getByLabel('Machine')).toHaveValue(String(bench.id))
-    await page.screenshot({ path: '/tmp/planner-from-run.png' })
+    await page.screenshot({ path: 'test-results/planner-from-run.png' })
     await page.getByRole('button', { name: 'Attach this plan to the run' }).click()
     await expect(page).toHaveURL(new RegExp(`/runs/${runId}$`))
     await expect(page.getByRole('button', { name: 'Done — next step' })).toBeVisible()
