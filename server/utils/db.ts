@@ -73,7 +73,6 @@ const drizzleOf = new WeakMap<object, DB>()
  * accepts more than one statement at a time. What `work` leaves open is rolled back.
  */
 export async function useStatementsAtOnce<T>(work: (connection: StatementsConnection) => Promise<T>): Promise<T> {
-  useDB()
   batchPool ??= mysql.createPool({ ...options(), multipleStatements: true })
   const connection = await batchPool.getConnection()
   const own = drizzleOf.get(connection.connection) ?? drizzle(connection as never, { schema, mode: 'default' }) as unknown as DB
@@ -111,6 +110,17 @@ export type DB = ReturnType<typeof useDB>
 export async function queryEscaped<T>(db: DB, statement: string, values: Parameters<typeof mysql.format>[1]): Promise<T[]> {
   const [rows] = await db.execute(sql.raw(mysql.format(statement, values))) as unknown as [T[]]
   return rows
+}
+
+/**
+ * Runs a drizzle write now, or, given `deferred`, adds it there as the text mysql2 would send
+ * for it (the same escaping as our pools' queryFormat), for the caller to send with others
+ * (useStatementsAtOnce).
+ */
+export async function writeNowOrDefer(query: PromiseLike<unknown> & { toSQL: () => { sql: string, params: unknown[] } }, deferred?: string[]) {
+  if (!deferred) return void await query
+  const { sql: text, params } = query.toSQL()
+  deferred.push(mysql.format(text, params as never, false, 'Z'))
 }
 
 /** A timestamp as a raw read on drizzle's connection returns it: UTC text, 'YYYY-MM-DD HH:MM:SS.mmm' (drizzle reads its own columns the same way). */
@@ -153,10 +163,4 @@ export function databaseUnreachable(error: unknown): { code: string } | null {
     if (/Can't add new command when connection is in closed state|Pool is closed/.test(String(e.message ?? ''))) return { code: code || 'CONNECTION_CLOSED' }
   }
   return null
-}
-
-/** A drizzle statement as the text mysql2 would send for it (the same escaping as our pools' queryFormat), to be sent later with others (useStatementsAtOnce). */
-export function statementText(query: { toSQL: () => { sql: string, params: unknown[] } }) {
-  const { sql: text, params } = query.toSQL()
-  return mysql.format(text, params as never, false, 'Z')
 }

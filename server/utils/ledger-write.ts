@@ -162,16 +162,10 @@ export async function writeRunLedger(db: DB, shopId: number, folded: FoldedRun[]
     }
 
     const minutes = spindleMinutesOf(f.state, f.steps, id => planMinutes.get(id) ?? null)
-    const update = db.update(tables.runs).set({ ...options.summaries?.get(f.run.id), spindleMinutes: minutes }).where(eq(tables.runs.id, f.run.id))
-    if (deferred) deferred.push(statementText(update))
-    else await update
+    await writeNowOrDefer(db.update(tables.runs).set({ ...options.summaries?.get(f.run.id), spindleMinutes: minutes }).where(eq(tables.runs.id, f.run.id)), deferred)
   }
   // ignore(): two merges folding the same run at once may both try to add the same entry
-  if (inserts.length) {
-    const insert = db.insert(l).ignore().values(inserts)
-    if (deferred) deferred.push(statementText(insert))
-    else await insert
-  }
+  if (inserts.length) await writeNowOrDefer(db.insert(l).ignore().values(inserts), deferred)
   if (!changes.length) return
 
   // Each changed entry: one entry-changed row naming the cause, then the old row marked; both

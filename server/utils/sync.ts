@@ -298,10 +298,9 @@ async function mergeChecked(user: ShopUser, request: SyncRequest, address: strin
     const newRun = onlyRun === undefined ? undefined : newRuns.get(onlyRun)
     if (newRun && startedHere.has(newRun.id) && !nonces.length && !failedSignoffs.length) {
       // A batch that starts its run and stores nothing else: its transaction in three round trips
-      const events = toInsert
-      const outcome = await withWriteRetry(() => storeStartedRun(user, newRun, events, peopleIds,
-        seqs => readBack(new Set(events.map(e => e.id)), seqs)))
-      for (const e of events) stored.add(e.id)
+      const outcome = await withWriteRetry(() => storeStartedRun(user, newRun, toInsert, peopleIds,
+        seqs => readBack(new Set(toInsert.map(e => e.id)), seqs)))
+      for (const e of toInsert) stored.add(e.id)
       for (const [id, seq] of outcome.seqs) storedSeq.set(id, seq)
       readRows = outcome.rows
     }
@@ -424,6 +423,10 @@ function insertEventsSql(shopId: number, events: RunEvent[], json: Map<string, s
   return mysql.format(`insert into run_events (id, shop_id, run_id, type, actor_id, device_id, at, payload) values ?${passDuplicates ? ' on duplicate key update id = id' : ' returning id, seq, received_at as receivedAt'}`, [rows])
 }
 
+/** A new run's row (mysql2's escaping: drizzle's builder took longer to write it than MariaDB to store it). */
+const insertRunSql = (run: typeof tables.runs.$inferInsert) => mysql.format('insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, ?)',
+  [run.id, run.shopId, run.machineId, run.procedureVersionId, run.startedBy, run.mode, sqlTime(run.startedAt.toISOString())])
+
 /** What the plain INSERT returned of each row it stored (insertEventsSql). */
 type Returned = Map<string, { seq: number, receivedAt: Date }>
 
@@ -515,9 +518,7 @@ async function storeRunEvents(tx: DB, user: ShopUser, newRun: typeof tables.runs
       let created = false
       if (newRun) {
         try {
-          // (mysql2's escaping: drizzle's builder took longer to write it than MariaDB to store it)
-          await queryEscaped(db, 'insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, ?)',
-            [newRun.id, newRun.shopId, newRun.machineId, newRun.procedureVersionId, newRun.startedBy, newRun.mode, sqlTime(newRun.startedAt.toISOString())])
+          await db.execute(sql.raw(insertRunSql(newRun)))
           created = true
         }
         catch (error) {
@@ -637,8 +638,7 @@ async function storeStartedRun(user: ShopUser, newRun: typeof tables.runs.$infer
       const opening = send([
         'begin',
         // The run's row, then its events' rows (they return their sequence numbers and arrival times)
-        mysql.format('insert into runs (id, shop_id, machine_id, procedure_version_id, started_by, mode, started_at) values (?, ?, ?, ?, ?, ?, ?)',
-          [newRun.id, newRun.shopId, newRun.machineId, newRun.procedureVersionId, newRun.startedBy, newRun.mode, sqlTime(newRun.startedAt.toISOString())]),
+        insertRunSql(newRun),
         insertEventsSql(user.shopId, events, json, false),
       ])
       opening.catch(() => {}) // (awaited below; this only keeps it from counting as unhandled meanwhile)
@@ -786,11 +786,7 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
       const flag = flagById.get(row.id) ?? null
       if (flag !== row.flag) (changes.get(flag) ?? changes.set(flag, []).get(flag)!).push(row.id)
     }
-    for (const [flag, ids] of changes) {
-      const update = db.update(tables.runEvents).set({ flag }).where(inArray(tables.runEvents.id, ids))
-      if (deferred) deferred.push(statementText(update))
-      else await update
-    }
+    for (const [flag, ids] of changes) await writeNowOrDefer(db.update(tables.runEvents).set({ flag }).where(inArray(tables.runEvents.id, ids)), deferred)
     await recordFacing(db, shopId, run, state, steps)
     const current = state.steps[state.currentStepIndex]
     const summary: RunSummary = {
@@ -801,11 +797,7 @@ export async function refoldRuns(db: DB, shopId: number, runIds: string[], arriv
     // A run the Ledger writes (its procedure known) gets its summary in the Ledger's UPDATE of
     // its spindle time: one statement per run (issue 14).
     if (procedureId !== undefined) summaries.set(run.id, summary)
-    else {
-      const update = db.update(tables.runs).set(summary).where(eq(tables.runs.id, run.id))
-      if (deferred) deferred.push(statementText(update))
-      else await update
-    }
+    else await writeNowOrDefer(db.update(tables.runs).set(summary).where(eq(tables.runs.id, run.id)), deferred)
   }
   // The Ledger's entries and the runs' spindle time, from the same fold (server/utils/ledger-write.ts)
   // The runs whose rows the caller knows were created in its transaction (foldAhead)
