@@ -1,7 +1,7 @@
 import { fileURLToPath } from 'node:url'
 import { pwa } from './pwa.config'
 import { cspHashesModule } from './server/build/csp-hashes'
-import { localeFiles, localesModule } from './i18n/locale-list'
+import { localesModule } from './i18n/locale-list'
 
 // Jogwise keeps Nuxt's folders at the repository root (app.vue, pages/, components/…), so srcDir
 // is '.'; server/, shared/ and public/ are Nuxt's defaults relative to it.
@@ -18,25 +18,11 @@ export default defineNuxtConfig({
     '@vueuse/nuxt',
     '@vite-pwa/nuxt',
     '@nuxt/eslint',
-    '@nuxtjs/i18n',
   ],
-  // English and Spanish to start; every file in i18n/locales is a language (i18n/locale-list.ts).
-  // No URL prefix: the tablet keeps the same addresses. Until a person chooses a language (their
-  // profile, plugins/user-language.ts) the browser's language decides, remembered in a cookie.
-  i18n: {
-    strategy: 'no_prefix',
-    defaultLocale: 'en',
-    locales: localeFiles(),
-    detectBrowserLanguage: { useCookie: true, cookieKey: 'jogwise-lang', redirectOn: 'root', fallbackLocale: 'en' },
-    // The messages files are written into the build output, so the service worker precaches
-    // them and a Spanish screen reloads offline in Spanish (pwa.config.ts).
-    experimental: { prerenderMessages: true },
-    // A lighter entry for every screen (issue 14): Composition API only; no global <i18n-t>,
-    // <i18n-n>, <i18n-d> or v-t (the two components that interpolate one import Translation
-    // themselves); and the app's own small message compiler in place of vue-i18n's
-    // (i18n/message-compiler.ts, set in i18n/i18n.config.ts).
-    bundle: { compositionOnly: true, fullInstall: false, dropMessageCompiler: true },
-  },
+  // Languages: every file in i18n/locales is one (modules/languages.ts serves them as data);
+  // the screens read them through composables/i18n.ts. No URL prefix: the tablet keeps the same
+  // addresses. Until a person chooses a language (their profile, plugins/user-language.ts) the
+  // tablet's last choice or the browser's language decides (plugins/i18n.ts).
   // npm run lint: the project's code style (single quotes, no semicolons), eslint.config.mjs.
   eslint: { config: { stylistic: { quotes: 'single', semi: false, indent: 2, commaDangle: 'always-multiline', braceStyle: 'stroustrup', arrowParens: false } } },
   css: ['~/assets/css/main.css'],

@@ -30,11 +30,11 @@ export const pwa: Partial<ModuleOptions> = {
     ],
   },
   workbox: {
-    // The language files (prerendered by the i18n module as /_i18n/<hash>/<locale>/messages.json)
+    // The language files (/_lang/<code>.<hash>.json, modules/languages.ts)
     // are precached with the screens, so a screen reloads offline in its person's language.
     // woff: the fonts the printed sheet embeds; wasm: the QR reader of "Scan a machine tag" where
     // the browser has no BarcodeDetector (issue 17).
-    globPatterns: ['**/*.{js,css,woff,woff2,wasm,png,svg,ico,webmanifest}', 'shell/index.html', '_i18n/**/messages.json'],
+    globPatterns: ['**/*.{js,css,woff,woff2,wasm,png,svg,ico,webmanifest}', 'shell/index.html', '_lang/*.json'],
     // The QR reader's WASM is about 1.1 MB; workbox skips files over 2 MB by default.
     maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
     cleanupOutdatedCaches: true,

@@ -7,7 +7,10 @@ export type ShopTheme = 'light' | 'dark'
  * on the first paint and a dim shop never gets a white flash.
  */
 export function useShopTheme() {
-  const theme = useCookie<ShopTheme>(STORAGE_KEY_THEME, { default: () => 'light', maxAge: 60 * 60 * 24 * 365, sameSite: 'lax' })
-  const toggle = () => { theme.value = theme.value === 'dark' ? 'light' : 'dark' }
+  const theme = useState<ShopTheme>(STORAGE_KEY_THEME, () => startingCookie(STORAGE_KEY_THEME) === 'dark' ? 'dark' : 'light')
+  const toggle = () => {
+    theme.value = theme.value === 'dark' ? 'light' : 'dark'
+    rememberInCookie(STORAGE_KEY_THEME, theme.value)
+  }
   return { theme, toggle }
 }

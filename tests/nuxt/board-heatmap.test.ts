@@ -85,7 +85,7 @@ describe('BoardAnalysisPanel', () => {
 
 describe('the Board in Spanish', () => {
   it('names the figures in Spanish and writes them with a decimal comma; units stay the machine\'s', async () => {
-    const i18n = useNuxtApp().$i18n
+    const i18n = useI18n()
     await i18n.setLocale('es')
     try {
       const w = await mountSuspended(BoardAnalysisPanel, { props: { analysis: analysisOf(F1, { nominalThickness: 19 }), units: 'mm', minThicknessMm: 12 } })

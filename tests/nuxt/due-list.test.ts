@@ -29,13 +29,13 @@ const CASES: IntervalFacts[] = [
 ]
 
 async function reasons(lang: 'en' | 'es', items: DueItem[]) {
-  await useNuxtApp().$i18n.setLocale(lang)
+  await useI18n().setLocale(lang)
   const wrapper = await mountSuspended(DueList, { props: { items, showOk: true } })
   return wrapper.findAll('[data-testid=due-reason]').map(p => p.text())
 }
 
 describe('DueList reasons', () => {
-  afterEach(async () => { await useNuxtApp().$i18n.setLocale('en') })
+  afterEach(async () => { await useI18n().setLocale('en') })
 
   it('reads in English exactly as the server\'s sentence', async () => {
     const items = CASES.map(item)

@@ -8,7 +8,7 @@ import { defineComponent, h } from 'vue'
 const at = new Date(2026, 11, 3, 14, 5, 9) // 3 December 2026, 14:05:09 local time
 
 async function formatted(lang: 'en' | 'es') {
-  await useNuxtApp().$i18n.setLocale(lang)
+  await useI18n().setLocale(lang)
   let out: Record<string, string> = {}
   await mountSuspended(defineComponent(() => {
     const f = useFormat()
@@ -23,7 +23,7 @@ async function formatted(lang: 'en' | 'es') {
 }
 
 describe('useFormat', () => {
-  afterEach(async () => { await useNuxtApp().$i18n.setLocale('en') })
+  afterEach(async () => { await useI18n().setLocale('en') })
 
   it('writes English dates with the 12-hour clock', async () => {
     const f = await formatted('en')
