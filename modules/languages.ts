@@ -18,15 +18,15 @@ export default defineNuxtModule({
     const files = localeFiles().map((l) => {
       const text = JSON.stringify(JSON.parse(readFileSync(join(LOCALES_DIR, l.file), 'utf8')))
       const hash = createHash('sha256').update(text).digest('hex').slice(0, 10)
-      return { ...l, text, name: `${l.code}.${hash}.json` }
+      return { ...l, text, fileName: `${l.code}.${hash}.json` }
     })
-    const entries: LanguageEntry[] = files.map(l => ({ code: l.code, name: l.name, language: l.language, file: `/_lang/${l.name}` }))
+    const entries: LanguageEntry[] = files.map(l => ({ code: l.code, name: l.name, language: l.language, file: `/_lang/${l.fileName}` }))
     // Written once the build folder has been cleared for this build (`nuxt build` clears it
     // after the modules are set up), before Nitro copies its public assets.
     nuxt.hook('build:before', () => {
       rmSync(outDir, { recursive: true, force: true })
       mkdirSync(outDir, { recursive: true })
-      for (const f of files) writeFileSync(join(outDir, f.name), f.text)
+      for (const f of files) writeFileSync(join(outDir, f.fileName), f.text)
     })
     // English first: it fills in any key another language lacks.
     entries.sort((a, b) => a.code === 'en' ? -1 : b.code === 'en' ? 1 : a.code.localeCompare(b.code))

@@ -264,7 +264,7 @@ test('a Spanish screen reloads offline in Spanish and the hold acknowledged offl
   await expect.poll(() => page.evaluate(async () => {
     const urls: string[] = []
     for (const name of await caches.keys()) for (const r of await (await caches.open(name)).keys()) urls.push(new URL(r.url).pathname)
-    return urls.filter(u => u.startsWith('/_i18n/')).map(u => u.split('/').at(-2)).sort()
+    return urls.filter(u => u.startsWith('/_lang/')).map(u => u.split('/').at(-1)!.split('.')[0]).sort()
   }), { timeout: 15_000 }).toEqual(['en', 'es'])
 
   await page.getByRole('article', { name: 'Bench Router' }).getByRole('link', { name: 'Empezar un procedimiento' }).click()
