@@ -67,6 +67,8 @@ export const pwa: Partial<ModuleOptions> = {
       },
     ],
   },
-  client: { installPrompt: false, periodicSyncForUpdates: 3600 },
+  // The module's client plugin is off: plugins/app-update.client.ts registers the worker, checks
+  // hourly for a new version and offers it, with no service-worker library on every screen (issue 14).
+  client: { registerPlugin: false },
   devOptions: { enabled: !!process.env.JOGWISE_DEV_PWA, type: 'module' },
 }
