@@ -99,7 +99,7 @@ export default defineNuxtConfig({
   // Links prefetch their page's scripts on touch or focus, not as soon as they are on screen:
   // the rail's links would otherwise load every screen's code (charts, planner, editor) beside
   // the Run screen (issue 14). Offline, the service worker's precache has them all anyway.
-  experimental: { payloadExtraction: false, defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } } },
+  experimental: { appManifest: false, payloadExtraction: false, defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } } },
   // Production only: Nitro's node server plus JSON answers for requests Node refuses itself
   // (server/entry/node-server.ts); `nuxt dev` keeps its own entry.
   $production: {
