@@ -99,6 +99,8 @@ export default defineNuxtConfig({
   // Links prefetch their page's scripts on touch or focus, not as soon as they are on screen:
   // the rail's links would otherwise load every screen's code (charts, planner, editor) beside
   // the Run screen (issue 14). Offline, the service worker's precache has them all anyway.
+  // No app manifest: it serves only client-side route rules (Jogwise has none the browser needs)
+  // and a check for a newer build, which the service worker's update prompt makes already.
   experimental: { appManifest: false, payloadExtraction: false, defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } } },
   // Production only: Nitro's node server plus JSON answers for requests Node refuses itself
   // (server/entry/node-server.ts); `nuxt dev` keeps its own entry.
