@@ -19,7 +19,7 @@ export function useCachedFetch<ReqT extends NitroFetchRequest, ResT = TypedInter
       servedAt.value = date ? new Date(date).toISOString() : new Date().toISOString()
     },
   }) as AsyncData<ResT, FetchError | undefined>
-  const now = useNow({ interval: 30_000 })
+  const now = useClock(30_000)
   // Older than two minutes means it did not come fresh from the server.
   const savedCopyFrom = computed(() => {
     if (!servedAt.value) return null

@@ -1,10 +1,8 @@
-import { formatDate, formatTimeAgoIntl } from '@vueuse/core'
-
 // Every date, time and number on screen, in the screen's language (its file's `meta.tag`, e.g.
-// "es" writes 0,127 and 3 dic 2026). Dates and times go through VueUse's formatDate with the
-// patterns of the language file's `formats` section (a third language brings its own), "how
-// long ago" through VueUse's formatTimeAgoIntl (Intl.RelativeTimeFormat: "5 minutes ago",
-// "hace 5 minutos"). Units stay the machine's; only how numbers read changes.
+// "es" writes 0,127 and 3 dic 2026). Dates and times follow the patterns of the language file's
+// `formats` section (a third language brings its own), "how long ago" Intl.RelativeTimeFormat
+// ("5 minutes ago", "hace 5 minutos"), both through utils/date-text.ts. Units stay the
+// machine's; only how numbers read changes.
 export type DatePattern = 'date' | 'day' | 'dateTime' | 'dayTime' | 'stamp' | 'time' | 'weekdayTime'
 type When = Date | string | number
 
@@ -15,7 +13,7 @@ export function useFormat() {
   // A stored time that does not parse shows a dash instead of "NaN" or an error for the list.
   const when = (v: When, pattern: DatePattern) => {
     const d = toDate(v)
-    return Number.isNaN(d.getTime()) ? '—' : formatDate(d, t(`formats.${pattern}`), { locales: tag.value })
+    return Number.isNaN(d.getTime()) ? '—' : datePatternText(d, t(`formats.${pattern}`), tag.value)
   }
   // The decimal mark of the language (',' in Spanish), for figures shared/machining wrote with '.'.
   const mark = computed(() => new Intl.NumberFormat(tag.value).formatToParts(1.5).find(p => p.type === 'decimal')?.value ?? '.')
@@ -43,7 +41,7 @@ export function useFormat() {
       const d = toDate(v)
       if (Number.isNaN(d.getTime())) return '—'
       const from = toDate(now).getTime() - d.getTime() < 60_000 ? toDate(now) : d
-      return formatTimeAgoIntl(from, { locale: tag.value, relativeTimeFormatOptions: { numeric: 'auto' } }, toDate(now))
+      return timeAgoText(from, toDate(now), tag.value)
     },
   }
 }

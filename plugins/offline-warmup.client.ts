@@ -7,7 +7,7 @@ const OFFLINE_READS = ['/api/me', '/api/machines', '/api/procedures', '/api/qual
 
 export default defineNuxtPlugin((nuxtApp) => {
   const { loggedIn } = useUserSession()
-  const online = useOnline()
+  const online = useNetworkUp()
   async function warm() {
     if (!loggedIn.value || !online.value || !navigator.serviceWorker?.controller) return
     await Promise.allSettled(OFFLINE_READS.map(url => fetch(url, { headers: { accept: 'application/json' } })))

@@ -41,7 +41,7 @@ export const useSyncStore = defineStore('sync', () => {
   const incoming = ref<Record<string, ServerEvent[]>>({})
   // The browser's own flag says only that a network is there; shop Wi-Fi can be up with the
   // server out of reach. The chip says Online only when both hold.
-  const networkUp = useOnline()
+  const networkUp = useNetworkUp()
   const reachable = ref(true)
   const online = computed(() => networkUp.value && reachable.value)
   const photoQueue = usePhotoQueueStore()

@@ -2,9 +2,9 @@ import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { afterEach, describe, expect, it } from 'vitest'
 import { defineComponent, h } from 'vue'
 
-// Dates, times and "how long ago" in the screen's language (issues 13 and 16), through VueUse's
-// formatDate and formatTimeAgoIntl. Month and weekday names and the relative phrases are the
-// CLDR data in the browser's Intl (Unicode CLDR), not written by us.
+// Dates, times and "how long ago" in the screen's language (issues 13 and 16), through the
+// language files' patterns and Intl.RelativeTimeFormat (utils/date-text.ts). Month and weekday
+// names and the relative phrases are the CLDR data in the browser's Intl (Unicode CLDR), not written by us.
 const at = new Date(2026, 11, 3, 14, 5, 9) // 3 December 2026, 14:05:09 local time
 
 async function formatted(lang: 'en' | 'es') {
