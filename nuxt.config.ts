@@ -1,6 +1,5 @@
 import { fileURLToPath } from 'node:url'
 import { pwa } from './pwa.config'
-import { manualChunks } from './chunks.config'
 import { cspHashesModule } from './server/build/csp-hashes'
 import { localesModule } from './i18n/locale-list'
 
@@ -134,8 +133,6 @@ export default defineNuxtConfig({
   // JOGWISE_CLIENT_SOURCEMAP=1: hidden client source maps (the scripts are byte for byte the
   // same), to see which source modules each script's weight comes from (bench/weight-sources.ts).
   ...(process.env.JOGWISE_CLIENT_SOURCEMAP && { sourcemap: { client: 'hidden' as const } }),
-  // The client's script chunks: fewer, not smaller (chunks.config.ts).
-  vite: { $client: { build: { rollupOptions: { output: { manualChunks, onlyExplicitManualChunks: true } } } } },
   pwa,
   tailwindcss: { cssPath: false, viewer: false },
 })

@@ -70,7 +70,7 @@ wait_for_ready() { # url seconds
 # Is the build in .output older than any source file?
 # Every source Nuxt builds from with srcDir '.': its root files and folders (utils/ holds the
 # app's auto-imported helpers); names that do not exist yet are passed over.
-BUILD_SOURCES=(app.vue app.config.ts chunks.config.ts error.vue nuxt.config.ts pwa.config.ts tailwind.config.ts package-lock.json
+BUILD_SOURCES=(app.vue app.config.ts error.vue nuxt.config.ts pwa.config.ts tailwind.config.ts package-lock.json
   assets components composables constants i18n layouts middleware modules pages plugins public server shared stores utils)
 
 build_is_stale() { # output-dir

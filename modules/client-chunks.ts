@@ -1,4 +1,5 @@
-import { relative } from 'node:path'
+import { dirname, relative } from 'node:path'
+import { defineNuxtModule, extendViteConfig } from '@nuxt/kit'
 import type { GetManualChunk, ManualChunkMeta } from 'rollup'
 
 // Script chunks of the client build (issue 14). Left alone, the bundler gives each set of
@@ -7,8 +8,7 @@ import type { GetManualChunk, ManualChunkMeta } from 'rollup'
 // Here the small modules the Run screen shares with other screens go into four chunks instead,
 // each of what a group of screens loads anyway (so no screen loads much it does not use):
 // - `shell`: the default layout (top bar, rail, sync chip) and what nearly every screen under it
-//   uses: icons, formatting, the resource reads and their error text, roles, units, input rules
-//   and ids;
+//   uses: icons, formatting, error text, roles, units, input rules and ids;
 // - `procedure`: a procedure's text rules, as the Library and the run screens both show them;
 // - `fold`: the run fold, for the Floor, the planner and the run screens;
 // - `run`: the run composable and the run screens' tap guard.
@@ -22,7 +22,8 @@ const CHUNKS: Record<string, RegExp[]> = {
     /^components\/layout\/The(TopBar|AppRail)\.vue$/,
     /^components\/sync\/SyncStatusChip\.client\.vue$/,
     /^components\/ui\/UiIcon\.vue$/,
-    /^composables\/(format|resources|cached-fetch|error-text)\.ts$/,
+    /^composables\/(format|error-text)\.ts$/,
+    /^utils\/date-text\.ts$/,
     /^shared\/i18n\/translate\.ts$/,
     /^shared\/types\/roles\.ts$/,
     /^shared\/rules\/(language|input)\.ts$/,
@@ -45,7 +46,7 @@ const CHUNKS: Record<string, RegExp[]> = {
   ],
 }
 
-const ROOT = import.meta.dirname
+const ROOT = dirname(import.meta.dirname)
 
 /** The chunk a module is listed for, by its path inside the repository. */
 function listedChunk(id: string) {
@@ -78,9 +79,42 @@ function withImports(ids: Iterable<string>, { getModuleInfo }: ManualChunkMeta, 
  */
 const NUXT_COMPONENTS_INDEX = /[\\/]node_modules[\\/]nuxt[\\/]dist[\\/]app[\\/]components[\\/]index\.js$/
 
+/**
+ * Nuxt's useAsyncData and useFetch modules make their composables with top-level factory calls
+ * the bundler cannot prove pure, so every screen's entry kept them (with their key hashing),
+ * used or not. They have no side effects of their own: marked so, and not named for the entry,
+ * they load with the screens that read through them, not with the Run screen, which reads
+ * through its own store.
+ */
+const PURE_NUXT_MODULES = /[\\/]node_modules[\\/]nuxt[\\/]dist[\\/]app[\\/]composables[\\/](asyncData|fetch)\.js$/
+/** What only those two use on a screen (their key hashing and debounced refresh). */
+const USED_WITH_PURE_NUXT_MODULES = /[\\/]node_modules[\\/](ohash|perfect-debounce)[\\/]/
+const NOT_NAMED_FOR_ENTRY = new RegExp([NUXT_COMPONENTS_INDEX, PURE_NUXT_MODULES, USED_WITH_PURE_NUXT_MODULES].map(r => r.source).join('|'))
+
 let inEntry: Set<string> | undefined
 
-export const manualChunks: GetManualChunk = (id, meta) => {
-  inEntry ??= withImports([...meta.getModuleIds()].filter(id => meta.getModuleInfo(id)?.isEntry), meta, NUXT_COMPONENTS_INDEX)
+const manualChunks: GetManualChunk = (id, meta) => {
+  inEntry ??= withImports([...meta.getModuleIds()].filter(id => meta.getModuleInfo(id)?.isEntry), meta, NOT_NAMED_FOR_ENTRY)
   return inEntry.has(id) ? 'entry' : listedChunk(id)
 }
+
+export default defineNuxtModule({
+  meta: { name: 'jogwise-client-chunks' },
+  setup(_options, nuxt) {
+    // The development server serves modules one by one; chunks are a production build's matter.
+    if (nuxt.options.dev) return
+    extendViteConfig((config) => {
+      inEntry = undefined
+      config.build ||= {}
+      config.build.rollupOptions ||= {}
+      config.build.rollupOptions.output = { ...config.build.rollupOptions.output as object, manualChunks, onlyExplicitManualChunks: true }
+      config.plugins ||= []
+      config.plugins.push({
+        name: 'jogwise-pure-nuxt-modules',
+        transform(_code, id) {
+          if (PURE_NUXT_MODULES.test(id)) return { code: _code, map: null, moduleSideEffects: false }
+        },
+      })
+    }, { server: false })
+  },
+})
