@@ -1,6 +1,5 @@
 import { dirname, relative } from 'node:path'
-import { defineNuxtModule, extendViteConfig } from '@nuxt/kit'
-import type { GetManualChunk, ManualChunkMeta } from 'rollup'
+import { addVitePlugin, defineNuxtModule } from '@nuxt/kit'
 
 // Script chunks of the client build (issue 14). Left alone, the bundler gives each set of
 // modules that a different set of screens shares a chunk of its own: the Run screen fetched some
@@ -59,7 +58,13 @@ function listedChunk(id: string) {
 }
 
 /** The given modules and every module they import statically, however deep. */
-function withImports(ids: Iterable<string>, { getModuleInfo }: ManualChunkMeta, skip?: RegExp) {
+/** What the bundler tells a chunk-naming function about the module graph. */
+interface ModuleGraph {
+  getModuleIds: () => Iterable<string>
+  getModuleInfo: (id: string) => { isEntry: boolean, importedIds: readonly string[] } | null
+}
+
+function withImports(ids: Iterable<string>, { getModuleInfo }: ModuleGraph, skip?: RegExp) {
   const seen = new Set<string>()
   const queue = [...ids]
   for (const id of queue) {
@@ -93,7 +98,7 @@ const NOT_NAMED_FOR_ENTRY = new RegExp([NUXT_COMPONENTS_INDEX, PURE_NUXT_MODULES
 
 let inEntry: Set<string> | undefined
 
-const manualChunks: GetManualChunk = (id, meta) => {
+function manualChunks(id: string, meta: ModuleGraph) {
   inEntry ??= withImports([...meta.getModuleIds()].filter(id => meta.getModuleInfo(id)?.isEntry), meta, NOT_NAMED_FOR_ENTRY)
   return inEntry.has(id) ? 'entry' : listedChunk(id)
 }
@@ -103,18 +108,21 @@ export default defineNuxtModule({
   setup(_options, nuxt) {
     // The development server serves modules one by one; chunks are a production build's matter.
     if (nuxt.options.dev) return
-    extendViteConfig((config) => {
-      inEntry = undefined
-      config.build ||= {}
-      config.build.rollupOptions ||= {}
-      config.build.rollupOptions.output = { ...config.build.rollupOptions.output as object, manualChunks, onlyExplicitManualChunks: true }
-      config.plugins ||= []
-      config.plugins.push({
-        name: 'jogwise-pure-nuxt-modules',
-        transform(_code, id) {
-          if (PURE_NUXT_MODULES.test(id)) return { code: _code, map: null, moduleSideEffects: false }
-        },
-      })
-    }, { server: false })
+    addVitePlugin({
+      name: 'jogwise-client-chunks',
+      apply: 'build',
+      // The browser's build only; the server's bundle is not fetched by anyone.
+      config(_config, env) {
+        if (env.isSsrBuild) return
+        inEntry = undefined
+        // Rollup's output options: Nuxt builds with its own Vite 7 and Rollup, while the types
+        // seen here are those of the newer Vite at the project's top level.
+        const output = { manualChunks, onlyExplicitManualChunks: true }
+        return { build: { rollupOptions: { output: output as never } } }
+      },
+      transform(code, id) {
+        if (PURE_NUXT_MODULES.test(id)) return { code, map: null, moduleSideEffects: false }
+      },
+    })
   },
 })
