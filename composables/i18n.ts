@@ -1,6 +1,6 @@
 import { languages } from '#jogwise-languages'
 import { renderMessage, type MessageValues } from '#shared/i18n/render'
-import { flatten, pickLanguage, type MessageTree } from '#shared/i18n/translate'
+import { chooseLanguage, flatten, LANGUAGE_COOKIE, type MessageTree } from '#shared/i18n/translate'
 
 // The screens' texts in the person's language. Jogwise's own small layer in place of a full
 // i18n library (issue 14: the Run screen carried about 17 KB gzip of one), with the same few
@@ -8,7 +8,6 @@ import { flatten, pickLanguage, type MessageTree } from '#shared/i18n/translate'
 // The messages are the files in i18n/locales, served as data (modules/languages.ts); English
 // fills in any key a language lacks, and a key nobody wrote shows as itself.
 
-export const LANGUAGE_COOKIE = 'jogwise-lang'
 const LANGUAGE_STATE = 'jogwise-language'
 const CODES = languages.map(l => l.code)
 
@@ -43,14 +42,11 @@ export function loadLanguage(code: string): Promise<void> {
 }
 
 /**
- * The language a screen starts in before anyone is signed in: the tablet's remembered choice (a
- * cookie), else the browser's languages, else English. The person's own choice, once signed in,
- * comes after (plugins/user-language.ts).
+ * The language a screen starts in, by the server's own rule (chooseLanguage): the signed-in
+ * person's choice, else the tablet's cookie, else the browser's languages, else English.
  */
-export function startingLanguage(cookieHeader: string | undefined | null, acceptLanguage: string | undefined | null) {
-  const remembered = cookieIn(cookieHeader, LANGUAGE_COOKIE)
-  if (remembered && CODES.includes(remembered)) return remembered
-  return pickLanguage(acceptLanguage, CODES)
+export function startingLanguage(chosen: string | null | undefined, cookieHeader: string | undefined | null, acceptLanguage: string | undefined | null) {
+  return chooseLanguage(CODES, { chosen, cookie: cookieIn(cookieHeader, LANGUAGE_COOKIE), acceptLanguage })
 }
 
 /** The message text under a dotted key, in `code` and else in English. */

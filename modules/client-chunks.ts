@@ -57,13 +57,13 @@ function listedChunk(id: string) {
   return null
 }
 
-/** The given modules and every module they import statically, however deep. */
 /** What the bundler tells a chunk-naming function about the module graph. */
 interface ModuleGraph {
   getModuleIds: () => Iterable<string>
   getModuleInfo: (id: string) => { isEntry: boolean, importedIds: readonly string[] } | null
 }
 
+/** The given modules and every module they import statically, however deep. */
 function withImports(ids: Iterable<string>, { getModuleInfo }: ModuleGraph, skip?: RegExp) {
   const seen = new Set<string>()
   const queue = [...ids]

@@ -8,14 +8,14 @@ export default defineNuxtPlugin({
   name: 'jogwise-i18n',
   async setup() {
     const { locale } = useI18n()
+    // A signed-in person's own choice first (plugins/user-language.ts keeps it once running).
+    const chosen = useUserSession().user.value?.language
     if (import.meta.server) {
-      // A signed-in person's own choice first (plugins/user-language.ts keeps it once running).
-      const chosen = useUserSession().user.value?.language
       const headers = useRequestHeaders(['cookie', 'accept-language'])
-      locale.value = chosen && languages.some(l => l.code === chosen) ? chosen : startingLanguage(headers.cookie, headers['accept-language'])
+      locale.value = startingLanguage(chosen, headers.cookie, headers['accept-language'])
     }
     else if (!useNuxtApp().payload.serverRendered) {
-      locale.value = startingLanguage(document.cookie, navigator.languages.join(','))
+      locale.value = startingLanguage(chosen, document.cookie, navigator.languages.join(','))
     }
     const code = locale.value
     if (import.meta.server) {

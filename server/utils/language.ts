@@ -1,26 +1,22 @@
 import type { H3Event } from 'h3'
 import { getCookie, getRequestHeader } from 'h3'
 import locales from '#jogwise-locales'
-import { pickLanguage, translateIssues, translateText, type FieldIssue, type MessageTree } from '#shared/i18n/translate'
+import { chooseLanguage, LANGUAGE_COOKIE, translateIssues, translateText, type FieldIssue, type MessageTree } from '#shared/i18n/translate'
 
 /** Every language the app has a file for (i18n/locales), English first. */
 export const LANGUAGES: readonly string[] = ['en', ...Object.keys(locales).filter(l => l !== 'en').sort()]
-export const LANGUAGE_COOKIE = 'jogwise-lang'
 
 export function isLanguage(value: unknown): value is string {
   return typeof value === 'string' && LANGUAGES.includes(value)
 }
 
-/**
- * The language of whoever made the request: their profile's choice, else the tablet's (the
- * language cookie the screens keep), else the browser's Accept-Language, else English.
- */
+/** The language of whoever made the request (shared/i18n/translate.ts chooseLanguage). */
 export function callerLanguage(event: H3Event): string {
-  const chosen = (event.context.shopUser as { language?: string | null } | undefined)?.language
-  if (isLanguage(chosen)) return chosen
-  const cookie = getCookie(event, LANGUAGE_COOKIE)
-  if (isLanguage(cookie)) return cookie
-  return pickLanguage(getRequestHeader(event, 'accept-language'), LANGUAGES)
+  return chooseLanguage(LANGUAGES, {
+    chosen: (event.context.shopUser as { language?: string | null } | undefined)?.language,
+    cookie: getCookie(event, LANGUAGE_COOKIE),
+    acceptLanguage: getRequestHeader(event, 'accept-language'),
+  })
 }
 
 function section(lang: string, name: string): MessageTree {

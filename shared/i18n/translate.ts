@@ -104,3 +104,17 @@ export function pickLanguage(header: string | undefined | null, supported: reado
   }
   return fallback
 }
+
+/** The cookie in which a tablet remembers its language (the screens write it, the server reads it). */
+export const LANGUAGE_COOKIE = 'jogwise-lang'
+
+/**
+ * The language to speak to whoever made a request or opened a screen: their profile's choice,
+ * else the tablet's (the language cookie), else the browser's Accept-Language, else English.
+ * One rule for the server's answers and the screens, so both speak the same language.
+ */
+export function chooseLanguage(supported: readonly string[], from: { chosen?: string | null, cookie?: string | null, acceptLanguage?: string | null }): string {
+  if (from.chosen && supported.includes(from.chosen)) return from.chosen
+  if (from.cookie && supported.includes(from.cookie)) return from.cookie
+  return pickLanguage(from.acceptLanguage, supported)
+}

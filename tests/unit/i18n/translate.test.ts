@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { matchTemplate, pickLanguage, translateIssues, translateText, type MessageTree } from '../../../shared/i18n/translate'
+import { chooseLanguage, matchTemplate, pickLanguage, translateIssues, translateText, type MessageTree } from '../../../shared/i18n/translate'
 import en from '../../../i18n/locales/en.json'
 import es from '../../../i18n/locales/es.json'
 import { parseProcedure } from '../../../shared/procedures'
@@ -128,5 +128,20 @@ describe('messages of the Board, Machines, Cutters, Feeds, Planner and due inter
     expect(translateText(firstIssue(r, 'everyDays'), EN, ES)).toBe('Pon un número de días, de horas de husillo o los dos.')
     const long = IntervalCreateSchema.safeParse({ procedureId: 1, everyDays: 4000 })
     expect(translateText(firstIssue(long, 'everyDays'), EN, ES)).toBe('Días: como mucho 3650 (diez años).')
+  })
+})
+
+describe('chooseLanguage (the server\'s answers and the screens\' first render)', () => {
+  // Jogwise's own order, no outside source: the person's profile, the tablet's cookie, then the
+  // browser's Accept-Language; anything not a language file is passed over.
+  const supported = ['en', 'es']
+  it('takes the profile before the cookie and the cookie before the browser', () => {
+    expect(chooseLanguage(supported, { chosen: 'es', cookie: 'en', acceptLanguage: 'en' })).toBe('es')
+    expect(chooseLanguage(supported, { chosen: null, cookie: 'es', acceptLanguage: 'en' })).toBe('es')
+    expect(chooseLanguage(supported, { acceptLanguage: 'es-MX,es;q=0.9' })).toBe('es')
+  })
+  it('passes over a profile or cookie language with no file, and falls back to English', () => {
+    expect(chooseLanguage(supported, { chosen: 'xx', cookie: 'zz', acceptLanguage: 'es' })).toBe('es')
+    expect(chooseLanguage(supported, { chosen: 'xx', cookie: 'zz' })).toBe('en')
   })
 })
